@@ -1,7 +1,8 @@
 import type { NextConfig } from 'next';
 
 const nextConfig: NextConfig = {
-  // The engine and the database layer are plain TypeScript; nothing here needs a CDN or remote fonts.
+  // The test run builds into its own folder so a running demo server is never rebuilt under its feet.
+  distDir: process.env.NEXT_DIST_DIR ?? '.next',
   poweredByHeader: false,
   serverExternalPackages: ['mysql2', 'bcryptjs', 'nodemailer'],
 };
