@@ -35,6 +35,10 @@ bash scripts/mariadb.sh start
 bash scripts/mail.sh start
 node --import tsx db/migrate.ts
 
+echo "[test] lint (architecture boundaries) and type check"
+npx eslint .
+npx tsc --noEmit
+
 echo "[test] vitest: unit and integration tests"
 npx vitest run
 
