@@ -51,11 +51,11 @@ export const fixturePlanInput: ChannelPlanInput = {
   },
   body: { mode: 'coupling', mainsVrms: 230, bodyToMainsF: 3e-12, bodyToGroundF: 300e-12 },
   protection: { seriesROhm: 10e3, filter: { enabled: true, cDiffF: 100e-12, cCmF: 22e-12, cCmMismatch: 0.05 } },
-  instrumentation: { rOhm: 25e3, targetGain: 6, r3Ohm: 10e3, diffGain: 1, resistorTolerance: 0.001, opAmp: baseOpAmp },
+  instrumentation: { rOhm: 25e3, targetGain: 4, r3Ohm: 10e3, diffGain: 1, resistorTolerance: 0.001, opAmp: baseOpAmp },
   supply: { positiveV: 3.0, negativeV: 0, referenceV: 1.5 },
   highPass: { order: 1, fcHz: 0.05 },
   gainStage: {
-    gain: 50,
+    gain: 75,
     lowPass: { kind: 'butterworth', order: 2, fcHz: 150 },
     filterNoiseVPerRtHz: 20e-9,
     opAmp: { ...baseOpAmp, enVPerRtHz: 15e-9, enCornerHz: 10, gbwHz: 2e6 },
