@@ -172,3 +172,125 @@ export type Invitation = typeof invitations.$inferSelect;
 export type PasswordResetToken = typeof passwordResetTokens.$inferSelect;
 export type AuditEvent = typeof auditEvents.$inferSelect;
 export type NewAuditEvent = typeof auditEvents.$inferInsert;
+
+// ───────────────────────────────────────────────────────────────────────────────────────────────
+// Programs, channel plans and the part library (workspace data).
+// Every row carries its workspace so that each query can be scoped by it: an id from another
+// workspace simply matches nothing.
+// ───────────────────────────────────────────────────────────────────────────────────────────────
+// (Imports for this section are kept here so the section above stays as its author wrote it;
+// ES imports are hoisted, so their position does not matter.)
+import { customType } from 'drizzle-orm/mysql-core';
+import { partKinds, partStatuses } from '@/lib/parts/part-kinds';
+
+/**
+ * A JSON document column. MariaDB's JSON type is LONGTEXT with a validity check, so the driver
+ * returns it as a string: parse it on the way out (drizzle's `json()` does not).
+ */
+const jsonDocument = <TData>(name: string) =>
+  customType<{ data: TData; driverData: string }>({
+    dataType: () => 'json',
+    toDriver: (value) => JSON.stringify(value),
+    fromDriver: (value) => (typeof value === 'string' ? (JSON.parse(value) as TData) : (value as TData)),
+  })(name);
+
+/** A device under development; holds channel plans. */
+export const programs = mysqlTable(
+  'programs',
+  {
+    id: idColumn(),
+    workspaceId: idRef('workspace_id')
+      .notNull()
+      .references(() => workspaces.id),
+    name: varchar('name', { length: 200 }).notNull(),
+    description: varchar('description', { length: 2000 }).notNull().default(''),
+    /** Set when archived; archived programs are hidden from the default list and read-only. */
+    archivedAt: datetime('archived_at', { mode: 'date', fsp: 3 }),
+    createdByUserId: idRef('created_by_user_id')
+      .notNull()
+      .references(() => users.id),
+    updatedByUserId: idRef('updated_by_user_id')
+      .notNull()
+      .references(() => users.id),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [index('programs_workspace_idx').on(t.workspaceId, t.archivedAt)],
+);
+
+/**
+ * One acquisition channel design (the draft that revisions snapshot). `plan` is the engine's input
+ * (validated by `parsePlan` before every write); `report` is what the server computed from it.
+ * `version` implements optimistic concurrency: a save names the version it was based on.
+ */
+export const channelPlans = mysqlTable(
+  'channel_plans',
+  {
+    id: idColumn(),
+    programId: idRef('program_id')
+      .notNull()
+      .references(() => programs.id),
+    workspaceId: idRef('workspace_id')
+      .notNull()
+      .references(() => workspaces.id),
+    name: varchar('name', { length: 200 }).notNull(),
+    /** Requirement profile id of the plan (`diagnostic-ecg`, ..., `custom`), copied from the plan for listing. */
+    profileId: varchar('profile_id', { length: 100 }).notNull(),
+    /** Application of the profile: ecg, emg or eeg. */
+    application: varchar('application', { length: 10 }).notNull(),
+    plan: jsonDocument<Record<string, unknown>>('plan').notNull(),
+    /** The server's report for `plan` (null only if the engine could not produce one). */
+    report: jsonDocument<unknown>('report'),
+    /** Worst verdict among the report's checks, kept beside it so plan lists need not read reports. */
+    worstVerdict: mysqlEnum('worst_verdict', ['meets', 'marginal', 'fails']),
+    version: int('version').notNull().default(1),
+    archivedAt: datetime('archived_at', { mode: 'date', fsp: 3 }),
+    createdByUserId: idRef('created_by_user_id')
+      .notNull()
+      .references(() => users.id),
+    updatedByUserId: idRef('updated_by_user_id')
+      .notNull()
+      .references(() => users.id),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [
+    index('channel_plans_program_idx').on(t.programId),
+    index('channel_plans_workspace_idx').on(t.workspaceId),
+  ],
+);
+
+/**
+ * A part-library entry. `values` holds the part's parameters keyed by the channel plan's field
+ * names (`enVPerRtHz`, `gbwHz`, `bits`, `rsOhm`, ...), SI units, as validated by lib/parts.
+ */
+export const parts = mysqlTable(
+  'parts',
+  {
+    id: idColumn(),
+    workspaceId: idRef('workspace_id')
+      .notNull()
+      .references(() => workspaces.id),
+    kind: mysqlEnum('kind', partKinds).notNull(),
+    name: varchar('name', { length: 120 }).notNull(),
+    description: varchar('description', { length: 500 }).notNull().default(''),
+    status: mysqlEnum('status', partStatuses).notNull(),
+    /** Where the values come from: datasheet revision, measured, or assumed. */
+    sourceNote: varchar('source_note', { length: 500 }).notNull(),
+    values: jsonDocument<Record<string, number | string>>('values').notNull(),
+    retiredAt: datetime('retired_at', { mode: 'date', fsp: 3 }),
+    createdByUserId: idRef('created_by_user_id')
+      .notNull()
+      .references(() => users.id),
+    updatedByUserId: idRef('updated_by_user_id')
+      .notNull()
+      .references(() => users.id),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [uniqueIndex('parts_workspace_kind_name_unique').on(t.workspaceId, t.kind, t.name)],
+);
+
+export type Program = typeof programs.$inferSelect;
+export type ChannelPlanRow = typeof channelPlans.$inferSelect;
+export type PartRow = typeof parts.$inferSelect;
