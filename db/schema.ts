@@ -19,9 +19,9 @@ import {
 } from 'drizzle-orm/mysql-core';
 import { sql } from 'drizzle-orm';
 
-/** The four workspace roles, as in the product's roles table. */
-export const roles = ['admin', 'engineer', 'reviewer', 'regulator'] as const;
-export type Role = (typeof roles)[number];
+import { roles } from '@/lib/auth/roles';
+
+export { roles, type Role } from '@/lib/auth/roles';
 
 const createdAt = () =>
   datetime('created_at', { mode: 'date', fsp: 3 })
