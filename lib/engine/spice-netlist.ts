@@ -27,6 +27,10 @@ import type { ChannelPlan } from './plan';
 export const BOLTZMANN_J_PER_K = 1.380649e-23;
 /** Offset between kelvin and degrees Celsius. */
 const KELVIN_AT_0_C = 273.15;
+/** Common-mode input resistance assumed when the plan gives none, Ω (the engine's assumption too). */
+const DEFAULT_INPUT_CM_OHM = 1e12;
+/** Common-mode input capacitance assumed when the plan gives none, F (the engine's assumption too). */
+const DEFAULT_INPUT_CM_F = 3e-12;
 /** DC gain of the op-amp macro-model's single pole, V/V (high enough that closed-loop gains are exact to < 1 ppm·G). */
 const OPAMP_DC_GAIN = 1e9;
 /** Capacitor of the first-order high-pass and of each second-order high-pass capacitor, F (a design choice; only RC matters). */
@@ -74,6 +78,10 @@ export interface NetlistOptions {
   commonModeAt?: 'body' | 'amplifier';
   /** Model each op-amp's own finite CMRR (default true). */
   opAmpCmrr?: boolean;
+  /** Include the imbalance network Rimb∥Cimb in the positive lead (default true). */
+  imbalance?: boolean;
+  /** Scale the positive lead's electrode impedance by (1 + plan.electrodes.impedanceMismatch) (default true). */
+  electrodeMismatch?: boolean;
   /** Add the ADC input noise and quantization noise at the converter input (default true). */
   adcNoise?: boolean;
   /** Model the op-amps' current noise (default true). */
@@ -415,14 +423,20 @@ export function planToNetlist(plan: ChannelPlan, options: NetlistOptions): strin
     L.push('Vlink_n src_n in_n DC 0');
   } else {
     const e = plan.electrodes;
+    const mismatch = (options.electrodeMismatch ?? true) ? (e.impedanceMismatch ?? 0) : 0;
     L.push('* ---- electrodes: Ze = Rs + Rp∥Cp in each lead; imbalance network in the positive lead');
     for (const side of ['p', 'n'] as const) {
       const from = `src_${side}`;
-      L.push(`Rs_${side} ${from} e1_${side} ${spiceNumber(Math.max(e.rsOhm, 1e-6))}   ; electrode series resistance`);
-      L.push(`Rp_${side} e1_${side} e2_${side} ${spiceNumber(e.rpOhm)}   ; electrode parallel resistance`);
-      if (e.cpF > 0) L.push(`Cp_${side} e1_${side} e2_${side} ${spiceNumber(e.cpF)}   ; electrode parallel capacitance`);
+      const k = side === 'p' ? 1 + mismatch : 1;
+      const note = side === 'p' && mismatch > 0 ? ` (× ${1 + mismatch}: electrode mismatch)` : '';
+      L.push(`Rs_${side} ${from} e1_${side} ${spiceNumber(Math.max(e.rsOhm * k, 1e-6))}   ; electrode series resistance${note}`);
+      L.push(`Rp_${side} e1_${side} e2_${side} ${spiceNumber(e.rpOhm * k)}   ; electrode parallel resistance${note}`);
+      if (e.cpF > 0) L.push(`Cp_${side} e1_${side} e2_${side} ${spiceNumber(e.cpF / k)}   ; electrode parallel capacitance${note}`);
     }
-    if (e.imbalanceROhm > 0) {
+    const withImbalance = options.imbalance ?? true;
+    if (!withImbalance) {
+      L.push('Vimb e2_p e3_p DC 0   ; imbalance network left out of this analysis');
+    } else if (e.imbalanceROhm > 0) {
       L.push(`Rimb e2_p e3_p ${spiceNumber(e.imbalanceROhm)}   ; imbalance resistance (positive lead)`);
       if (e.imbalanceCF > 0) L.push(`Cimb e2_p e3_p ${spiceNumber(e.imbalanceCF)}   ; imbalance capacitance`);
     } else if (e.imbalanceCF > 0) {
@@ -445,6 +459,17 @@ export function planToNetlist(plan: ChannelPlan, options: NetlistOptions): strin
         L.push(`Ccm_n in_n 0 ${spiceNumber(pr.filter.cCmF)}   ; common-mode capacitor, negative input`);
       }
     }
+  }
+  L.push('');
+
+  // ---- amplifier common-mode input impedance
+  const op = plan.instrumentation.opAmp;
+  const rcmOhm = op.inputCmOhm ?? DEFAULT_INPUT_CM_OHM;
+  const ccmAmpF = op.inputCmF ?? DEFAULT_INPUT_CM_F;
+  L.push(`* ---- common-mode input impedance of each amplifier input${op.inputCmOhm === undefined || op.inputCmF === undefined ? ' (assumed where the plan gives none)' : ''}`);
+  for (const side of ['p', 'n'] as const) {
+    L.push(`Rcm_${side} in_${side} 0 ${spiceNumber(rcmOhm)} noisy=0   ; common-mode input resistance (model element, noiseless)`);
+    if (ccmAmpF > 0) L.push(`Ccmamp_${side} in_${side} 0 ${spiceNumber(ccmAmpF)}   ; common-mode input capacitance`);
   }
   L.push('');
 

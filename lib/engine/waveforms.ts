@@ -300,6 +300,11 @@ export interface WaveformOptions {
   signal?: 'ecg' | 'emg' | 'eeg';
   /** Components to include; each defaults to true. */
   include?: Partial<WaveformIncludes>;
+  /**
+   * When the electrode offset appears, s (an electrode connected at that instant). Default:
+   * present from long before the record, so every high-pass starts settled.
+   */
+  offsetStartS?: number;
   /** Heart rate of the synthetic ECG, bpm (default 72). */
   heartRateBpm?: number;
   /** Baseline wander: amplitude (V peak, default half the signal amplitude) and frequency (Hz, default 0.2). */
@@ -383,7 +388,10 @@ export function simulateChain(plan: ChannelPlan, options: WaveformOptions): Chai
           : syntheticEeg(n, fs, ctx.signalAmplitudeV, rand);
     for (let i = 0; i < n; i += 1) vd[i] += s[i];
   }
-  if (include.offset) for (let i = 0; i < n; i += 1) vd[i] += ctx.offsetV;
+  if (include.offset) {
+    const from = options.offsetStartS === undefined ? 0 : Math.max(0, Math.ceil(options.offsetStartS * fs));
+    for (let i = from; i < n; i += 1) vd[i] += ctx.offsetV;
+  }
   if (include.drift) {
     const a = options.drift?.amplitudeV ?? ctx.signalAmplitudeV / 2;
     const w = 2 * Math.PI * (options.drift?.frequencyHz ?? 0.2);

@@ -55,7 +55,7 @@ export const fixturePlanInput: ChannelPlanInput = {
   supply: { positiveV: 3.0, negativeV: 0, referenceV: 1.5 },
   highPass: { order: 1, fcHz: 0.05 },
   gainStage: {
-    gain: 75,
+    gain: 40,
     lowPass: { kind: 'butterworth', order: 2, fcHz: 150 },
     filterNoiseVPerRtHz: 20e-9,
     opAmp: { ...baseOpAmp, enVPerRtHz: 15e-9, enCornerHz: 10, gbwHz: 2e6 },
