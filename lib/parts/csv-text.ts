@@ -45,7 +45,7 @@ export function parseCsvRows(text: string): { rows: ParsedCsvRow[]; errors: Arra
       while (start < text.length && /\s/.test(text[start])) start++;
       const line = lineOf(start);
       previousEnd = result.meta.cursor;
-      for (const e of result.errors) errors.push({ line, message: `CSV syntax: ${e.message}` });
+      for (const e of result.errors) if (e.code !== 'UndetectableDelimiter') errors.push({ line, message: `CSV syntax: ${e.message}` });
       rows.push({ cells: result.data, line });
     },
   });
