@@ -54,6 +54,10 @@ export const opAmpSchema = z.object({
   outputFromNegV: nonNegative('output swing to the negative rail'),
   /** Output swing: closest approach to the positive rail, V. */
   outputFromPosV: nonNegative('output swing to the positive rail'),
+  /** Common-mode input resistance of each input, Ω (optional; the engine assumes 1 TΩ and says so when omitted). */
+  inputCmOhm: positive('common-mode input resistance').optional(),
+  /** Common-mode input capacitance of each input, F (optional; the engine assumes 3 pF and says so when omitted). */
+  inputCmF: nonNegative('common-mode input capacitance').optional(),
   /** Where the values come from (part library entry, datasheet revision, assumption). */
   source: z.string().max(500).default(''),
 });
@@ -73,6 +77,9 @@ export const electrodesSchema = z.object({
   imbalanceCF: nonNegative('imbalance capacitance'),
   /** Impedance magnitude of the reference / right-leg electrode, Ω. */
   groundOhm: positive('reference electrode impedance'),
+  /** Relative difference of the electrode impedance between the two measuring leads (0.2 = one lead 20 % higher); optional, used for the DC
+   * mismatch, the mains imbalance and the Monte Carlo. When omitted only the imbalance network counts as mismatch. */
+  impedanceMismatch: fraction('electrode impedance mismatch').optional(),
   /** Where the electrode values come from. */
   source: z.string().max(500).default(''),
 });
@@ -225,26 +232,67 @@ export const planSchema = z
     customProfile: z.unknown().optional(),
   })
   .superRefine((p, ctx) => {
-    if (p.supply.positiveV <= p.supply.negativeV) {
-      ctx.addIssue({ code: 'custom', path: ['supply', 'positiveV'], message: 'positive rail must be above the negative rail' });
-    } else if (p.supply.referenceV < p.supply.negativeV || p.supply.referenceV > p.supply.positiveV) {
-      ctx.addIssue({ code: 'custom', path: ['supply', 'referenceV'], message: 'reference voltage must lie between the rails' });
-    }
-    const nyquistHz = p.adc.sampleRateHz / 2;
-    if (p.gainStage.lowPass.fcHz >= nyquistHz) {
-      ctx.addIssue({ code: 'custom', path: ['gainStage', 'lowPass', 'fcHz'], message: `low-pass corner must be below the Nyquist frequency (${nyquistHz} Hz)` });
-    }
-    if (p.highPass.order > 0 && p.highPass.fcHz >= p.gainStage.lowPass.fcHz) {
-      ctx.addIssue({ code: 'custom', path: ['highPass', 'fcHz'], message: 'high-pass corner must be below the low-pass corner' });
-    }
-    if (p.leadOff.mode === 'ac' && p.leadOff.frequencyHz <= 0) {
-      ctx.addIssue({ code: 'custom', path: ['leadOff', 'frequencyHz'], message: 'AC lead-off needs an excitation frequency above zero' });
-    }
-    if (p.profileId === 'custom' && p.customProfile === undefined) {
-      ctx.addIssue({ code: 'custom', path: ['customProfile'], message: 'a custom profile must be given when profileId is custom' });
-    }
+    for (const issue of crossFieldIssues(p)) ctx.addIssue({ code: 'custom', path: issue.path, message: issue.message });
   });
 
 export type ChannelPlan = z.infer<typeof planSchema>;
 /** The plan as written in JSON before defaults apply. */
 export type ChannelPlanInput = z.input<typeof planSchema>;
+
+/** Reads a nested value from an unknown object without throwing. */
+function at(root: unknown, path: readonly string[]): unknown {
+  let v: unknown = root;
+  for (const key of path) {
+    if (v === null || typeof v !== 'object') return undefined;
+    v = (v as Record<string, unknown>)[key];
+  }
+  return v;
+}
+
+function num(root: unknown, ...path: string[]): number | undefined {
+  const v = at(root, path);
+  return typeof v === 'number' && Number.isFinite(v) ? v : undefined;
+}
+
+/**
+ * Rules between fields (rails, corners against Nyquist, ...). Written against an unknown value
+ * so that they also run when other fields are already invalid: every offending field is listed.
+ * @param p the plan (possibly invalid)
+ * @returns issues with their path as an array of keys
+ */
+export function crossFieldIssues(p: unknown): { path: string[]; message: string }[] {
+  const issues: { path: string[]; message: string }[] = [];
+  const pos = num(p, 'supply', 'positiveV');
+  const neg = num(p, 'supply', 'negativeV');
+  const ref = num(p, 'supply', 'referenceV');
+  if (pos !== undefined && neg !== undefined) {
+    if (pos <= neg) {
+      issues.push({ path: ['supply', 'positiveV'], message: 'positive rail must be above the negative rail' });
+    } else if (ref !== undefined && (ref < neg || ref > pos)) {
+      issues.push({ path: ['supply', 'referenceV'], message: 'reference voltage must lie between the rails' });
+    }
+  }
+  const fs = num(p, 'adc', 'sampleRateHz');
+  const lpHz = num(p, 'gainStage', 'lowPass', 'fcHz');
+  if (fs !== undefined && fs > 0 && lpHz !== undefined && lpHz >= fs / 2) {
+    issues.push({ path: ['gainStage', 'lowPass', 'fcHz'], message: `low-pass corner must be below the Nyquist frequency (${fs / 2} Hz)` });
+  }
+  const hpOrder = num(p, 'highPass', 'order');
+  const hpHz = num(p, 'highPass', 'fcHz');
+  if (hpOrder !== undefined && hpOrder > 0 && hpHz !== undefined && lpHz !== undefined && lpHz > 0 && hpHz >= lpHz) {
+    issues.push({ path: ['highPass', 'fcHz'], message: 'high-pass corner must be below the low-pass corner' });
+  }
+  if (at(p, ['leadOff', 'mode']) === 'ac') {
+    const f = num(p, 'leadOff', 'frequencyHz');
+    if (f !== undefined && f <= 0) issues.push({ path: ['leadOff', 'frequencyHz'], message: 'AC lead-off needs an excitation frequency above zero' });
+  }
+  const instrumentation = at(p, ['instrumentation']);
+  if (instrumentation !== null && typeof instrumentation === 'object') {
+    const given = Number(at(p, ['instrumentation', 'rgOhm']) !== undefined) + Number(at(p, ['instrumentation', 'targetGain']) !== undefined);
+    if (given !== 1) issues.push({ path: ['instrumentation', 'rgOhm'], message: 'give exactly one of gain resistance Rg or target first-stage gain' });
+  }
+  if (at(p, ['profileId']) === 'custom' && at(p, ['customProfile']) === undefined) {
+    issues.push({ path: ['customProfile'], message: 'a custom profile must be given when profileId is custom' });
+  }
+  return issues;
+}

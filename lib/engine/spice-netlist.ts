@@ -78,6 +78,11 @@ export interface NetlistOptions {
   commonModeAt?: 'body' | 'amplifier';
   /** Model each op-amp's own finite CMRR (default true). */
   opAmpCmrr?: boolean;
+  /**
+   * Sign of each instrumentation op-amp's common-mode error (default +1 for all: identical parts,
+   * whose errors cancel between A1 and A2). Opposite signs on A1 and A2 give the worst case.
+   */
+  opAmpCmrrSigns?: { a1?: -1 | 1; a2?: -1 | 1; a3?: -1 | 1 };
   /** Include the imbalance network Rimb∥Cimb in the positive lead (default true). */
   imbalance?: boolean;
   /** Scale the positive lead's electrode impedance by (1 + plan.electrodes.impedanceMismatch) (default true). */
@@ -314,7 +319,8 @@ function noiseGeneratorLines(name: string, spec: NoiseSpec, temperatureK: number
 
 interface OpAmpModelOptions {
   temperatureK: number;
-  cmrr: boolean;
+  /** Sign of the op-amp's common-mode error (0 = CMRR not modelled). */
+  cmrrSign: -1 | 0 | 1;
   currentNoise: boolean;
 }
 
@@ -327,8 +333,8 @@ function opAmpSubcircuit(name: string, opAmp: ChannelPlan['gainStage']['opAmp'],
   const lines: string[] = [];
   lines.push(`.subckt ${name} inp inn out`);
   lines.push(`* op-amp macro-model: GBW ${spiceNumber(opAmp.gbwHz)}Hz, e_n ${spiceNumber(opAmp.enVPerRtHz)}V/√Hz (1/f corner ${spiceNumber(opAmp.enCornerHz)}Hz), i_n ${spiceNumber(opAmp.inAPerRtHz)}A/√Hz, CMRR ${opAmp.cmrrDb} dB`);
-  if (options.cmrr) {
-    const halfInvCmrr = 0.5 / 10 ** (opAmp.cmrrDb / 20);
+  if (options.cmrrSign !== 0) {
+    const halfInvCmrr = (options.cmrrSign * 0.5) / 10 ** (opAmp.cmrrDb / 20);
     lines.push(`Ecm1 ncm1 inp inp 0 ${halfInvCmrr.toExponential(6)}   ; common-mode error (V+ + V-)/(2·CMRR), part from V+`);
     lines.push(`Ecm2 ncm2 ncm1 inn 0 ${halfInvCmrr.toExponential(6)}   ; ... and part from V-`);
   } else {
@@ -341,9 +347,11 @@ function opAmpSubcircuit(name: string, opAmp: ChannelPlan['gainStage']['opAmp'],
     // Generator of 1 kΩ thermal noise (scaled by the transconductance) with the current-noise 1/f corner.
     const rRefOhm = 1e3;
     const vDensity = Math.sqrt(4 * BOLTZMANN_J_PER_K * options.temperatureK * rRefOhm);
-    const inGen = noiseGeneratorLines('inoise', { density: vDensity, cornerHz: opAmp.inCornerHz }, options.temperatureK);
-    lines.push(...inGen.lines);
-    lines.push(`Gin inp 0 ${inGen.plus} ${inGen.minus} ${(opAmp.inAPerRtHz / vDensity).toExponential(6)}   ; current noise into V+ (i_n ${spiceNumber(opAmp.inAPerRtHz)}A/√Hz)`);
+    for (const pin of ['inp', 'inn'] as const) {
+      const inGen = noiseGeneratorLines(`inoise_${pin}`, { density: vDensity, cornerHz: opAmp.inCornerHz }, options.temperatureK);
+      lines.push(...inGen.lines);
+      lines.push(`Gin_${pin} ${pin} 0 ${inGen.plus} ${inGen.minus} ${(opAmp.inAPerRtHz / vDensity).toExponential(6)}   ; current noise into ${pin === 'inp' ? 'V+' : 'V-'} (i_n ${spiceNumber(opAmp.inAPerRtHz)}A/√Hz, independent per input)`);
+    }
   }
   lines.push(`Gol 0 npole nint inn 1   ; input stage, gm = 1 S`);
   lines.push(`Gload npole 0 npole 0 ${(1 / OPAMP_DC_GAIN).toExponential(6)}   ; A0 = ${OPAMP_DC_GAIN.toExponential(0)} as a noiseless conductance`);
@@ -379,11 +387,10 @@ export function planToNetlist(plan: ChannelPlan, options: NetlistOptions): strin
   const tempC = T - KELVIN_AT_0_C;
   const sweep = defaultSweep(plan, options);
   const ina = resolveInstrumentation(plan, options.resistors);
-  const opAmpOptions: OpAmpModelOptions = {
-    temperatureK: T,
-    cmrr: options.opAmpCmrr ?? true,
-    currentNoise: options.currentNoise ?? true,
-  };
+  const cmrrOn = options.opAmpCmrr ?? true;
+  const signs = { a1: 1, a2: 1, a3: 1, ...options.opAmpCmrrSigns } as const;
+  const inaModel = (sign: -1 | 1) => (!cmrrOn ? 'opamp_ina' : sign === 1 ? 'opamp_ina' : 'opamp_ina_neg');
+  const needNegative = cmrrOn && [signs.a1, signs.a2, signs.a3].includes(-1);
   const commonModeAt = options.commonModeAt ?? 'body';
   const directToAmplifier = options.analysis === 'cmrr' && commonModeAt === 'amplifier';
   const L: string[] = [];
@@ -393,8 +400,15 @@ export function planToNetlist(plan: ChannelPlan, options: NetlistOptions): strin
   L.push(`.options TEMP=${Number(tempC.toFixed(4))} TNOM=${Number(tempC.toFixed(4))}   ; plan temperature ${T} K`);
   L.push('');
   L.push('* ---- op-amp macro-models');
-  L.push(...opAmpSubcircuit('opamp_ina', plan.instrumentation.opAmp, opAmpOptions));
-  L.push(...opAmpSubcircuit('opamp_gain', plan.gainStage.opAmp, opAmpOptions));
+  const currentNoise = options.currentNoise ?? true;
+  L.push(...opAmpSubcircuit('opamp_ina', plan.instrumentation.opAmp, { temperatureK: T, cmrrSign: cmrrOn ? 1 : 0, currentNoise }));
+  if (needNegative) {
+    L.push('* the same op-amp with its common-mode error of the opposite sign');
+    L.push(...opAmpSubcircuit('opamp_ina_neg', plan.instrumentation.opAmp, { temperatureK: T, cmrrSign: -1, currentNoise }));
+  }
+  // The gain-stage op-amp's current noise flows into resistors whose values the plan leaves open
+  // (the high-pass resistor, Rf ∥ Ri), so it is left out rather than invented.
+  L.push(...opAmpSubcircuit('opamp_gain', plan.gainStage.opAmp, { temperatureK: T, cmrrSign: cmrrOn ? 1 : 0, currentNoise: false }));
   L.push('');
 
   // ---- sources
@@ -475,8 +489,8 @@ export function planToNetlist(plan: ChannelPlan, options: NetlistOptions): strin
 
   // ---- instrumentation stage
   L.push(`* ---- instrumentation stage: G1 = 1 + (R1 + R2)/Rg = ${Number(ina.g1.toPrecision(7))}, Gd = R4/R3 = ${Number(ina.gd.toPrecision(7))}`);
-  L.push('XA1 in_p fa va opamp_ina   ; input op-amp A1 (positive input)');
-  L.push('XA2 in_n fb vb opamp_ina   ; input op-amp A2 (negative input)');
+  L.push(`XA1 in_p fa va ${inaModel(signs.a1)}   ; input op-amp A1 (positive input)`);
+  L.push(`XA2 in_n fb vb ${inaModel(signs.a2)}   ; input op-amp A2 (negative input)`);
   L.push(`R1 va fa ${spiceNumber(ina.r1Ohm)}   ; feedback R of A1`);
   if (Number.isFinite(ina.rgOhm)) L.push(`Rg fa fb ${spiceNumber(ina.rgOhm)}   ; gain resistor`);
   else L.push('* Rg omitted: G1 = 1');
@@ -485,7 +499,7 @@ export function planToNetlist(plan: ChannelPlan, options: NetlistOptions): strin
   L.push(`R4inv d_n ina ${spiceNumber(ina.r4InvOhm)}   ; difference stage: feedback resistor`);
   L.push(`R3ref va d_p ${spiceNumber(ina.r3RefOhm)}   ; difference stage: input resistor from VA`);
   L.push(`R4ref d_p vref ${spiceNumber(ina.r4RefOhm)}   ; difference stage: resistor to the reference`);
-  L.push('XA3 d_p d_n ina opamp_ina   ; difference op-amp A3: ina = Gd·(VA − VB) + Vref');
+  L.push(`XA3 d_p d_n ina ${inaModel(signs.a3)}   ; difference op-amp A3: ina = Gd·(VA − VB) + Vref`);
   L.push('');
 
   // ---- high-pass
@@ -497,15 +511,15 @@ export function planToNetlist(plan: ChannelPlan, options: NetlistOptions): strin
     const rOhm = 1 / (2 * Math.PI * hp.fcHz * HIGH_PASS_CAP_F);
     L.push(`* ---- first-order high-pass, fc = ${spiceNumber(hp.fcHz)}Hz (τ = RC)`);
     L.push(`Chp ina hp ${spiceNumber(HIGH_PASS_CAP_F)}   ; series capacitor`);
-    L.push(`Rhp hp vref ${spiceNumber(rOhm)}   ; resistor to the reference`);
+    L.push(`Rhp hp vref ${spiceNumber(rOhm)} noisy=0   ; resistor to the reference (value follows from the chosen C: noiseless)`);
   } else {
     // Unity-gain Sallen-Key high-pass, equal C: ω0 = 1/(C·√(R1·R2)), Q = ½·√(R2/R1); Butterworth Q = 1/√2 → R2 = 2·R1.
     const rOhm = 1 / (2 * Math.PI * hp.fcHz * HIGH_PASS_CAP_F);
     L.push(`* ---- second-order Butterworth high-pass, fc = ${spiceNumber(hp.fcHz)}Hz (unity-gain Sallen-Key, equal C, Q = 1/√2)`);
     L.push(`Chp1 ina hpa ${spiceNumber(HIGH_PASS_CAP_F)}   ; first series capacitor`);
     L.push(`Chp2 hpa hpb ${spiceNumber(HIGH_PASS_CAP_F)}   ; second series capacitor`);
-    L.push(`Rhp1 hpa hp ${spiceNumber(rOhm / Math.SQRT2)}   ; feedback resistor R/√2`);
-    L.push(`Rhp2 hpb vref ${spiceNumber(rOhm * Math.SQRT2)}   ; resistor to the reference R·√2`);
+    L.push(`Rhp1 hpa hp ${spiceNumber(rOhm / Math.SQRT2)} noisy=0   ; feedback resistor R/√2 (noiseless: value follows from the chosen C)`);
+    L.push(`Rhp2 hpb vref ${spiceNumber(rOhm * Math.SQRT2)} noisy=0   ; resistor to the reference R·√2`);
     L.push('Ehp hp vref hpb vref 1   ; ideal unity buffer');
   }
   L.push('');
@@ -515,8 +529,8 @@ export function planToNetlist(plan: ChannelPlan, options: NetlistOptions): strin
   L.push(`* ---- gain stage: non-inverting, G2 = 1 + Rf/Ri = ${Number(g2.toPrecision(7))}`);
   if (g2 > 1) {
     L.push('XA4 hp g2n g2 opamp_gain   ; gain-stage op-amp');
-    L.push(`Rf g2 g2n ${spiceNumber((g2 - 1) * GAIN_STAGE_RI_OHM)}   ; feedback resistor`);
-    L.push(`Ri g2n vref ${spiceNumber(GAIN_STAGE_RI_OHM)}   ; input resistor to the reference`);
+    L.push(`Rf g2 g2n ${spiceNumber((g2 - 1) * GAIN_STAGE_RI_OHM)} noisy=0   ; feedback resistor (noiseless: the plan fixes only the ratio)`);
+    L.push(`Ri g2n vref ${spiceNumber(GAIN_STAGE_RI_OHM)} noisy=0   ; input resistor to the reference`);
   } else {
     L.push('XA4 hp g2 g2 opamp_gain   ; gain-stage op-amp as a follower');
   }
@@ -527,10 +541,17 @@ export function planToNetlist(plan: ChannelPlan, options: NetlistOptions): strin
   const sections = lowPassSections(lp.kind, lp.order);
   const w3dB = 2 * Math.PI * lp.fcHz;
   L.push(`* ---- anti-alias low-pass: ${lp.kind}, order ${lp.order}, −3 dB at ${spiceNumber(lp.fcHz)}Hz; ideal buffers, noiseless resistors`);
-  let node = 'g2';
+  if (plan.gainStage.filterNoiseVPerRtHz > 0) {
+    const fn = noiseGeneratorLines('fnoise', { density: plan.gainStage.filterNoiseVPerRtHz, cornerHz: 0 }, T);
+    L.push(...fn.lines);
+    L.push(`Efn lpin g2 ${fn.plus} ${fn.minus} 1   ; filter-network noise, at the filter input (shaped by the low-pass)`);
+  } else {
+    L.push('Vfn lpin g2 DC 0   ; no filter-network noise stated');
+  }
+  let node = 'lpin';
   sections.forEach((s, index) => {
     const k = index + 1;
-    const out = index === sections.length - 1 ? 'lpf' : `lp${k}`;
+    const out = index === sections.length - 1 ? 'lp' : `lp${k}`;
     const w0 = s.w0Normalized * w3dB;
     const R = LOW_PASS_RES_OHM;
     if (s.kind === 'real') {
@@ -553,14 +574,7 @@ export function planToNetlist(plan: ChannelPlan, options: NetlistOptions): strin
 
   // ---- filter-network noise and ADC input
   const fsHz = plan.adc.sampleRateHz;
-  L.push('* ---- filter-network noise (output-referred, white) and the converter input');
-  if (plan.gainStage.filterNoiseVPerRtHz > 0) {
-    const fn = noiseGeneratorLines('fnoise', { density: plan.gainStage.filterNoiseVPerRtHz, cornerHz: 0 }, T);
-    L.push(...fn.lines);
-    L.push(`Efn lp lpf ${fn.plus} ${fn.minus} 1   ; filter-network noise in series with the low-pass output`);
-  } else {
-    L.push('Vfn lp lpf DC 0   ; no filter-network noise stated');
-  }
+  L.push('* ---- the converter input');
   const lsbV = plan.adc.fullScaleV / 2 ** plan.adc.bits;
   const adcNoiseVrms = Math.sqrt(plan.adc.inputNoiseVrms ** 2 + (lsbV * lsbV) / 12);
   if ((options.adcNoise ?? true) && adcNoiseVrms > 0) {
