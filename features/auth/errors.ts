@@ -59,3 +59,13 @@ export function errorResponse(error: unknown): NextResponse<ErrorBody> {
   const { status, body } = describeError(error);
   return NextResponse.json(body, { status });
 }
+
+/** The form state for a thrown value, for server actions (same translation as for route handlers). */
+export function errorFormState(error: unknown): {
+  status: 'error';
+  message: string;
+  fieldErrors: Record<string, string[]>;
+} {
+  const { body } = describeError(error);
+  return { status: 'error', message: body.error.message, fieldErrors: body.error.fieldErrors ?? {} };
+}
