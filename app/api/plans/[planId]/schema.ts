@@ -1,0 +1,1 @@
+export { savePlanInputSchema as savePlanBodySchema, updatePlanInputSchema as updatePlanBodySchema } from '@/features/plans/schemas';

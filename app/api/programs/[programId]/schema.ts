@@ -1,0 +1,1 @@
+export { updateProgramInputSchema as updateProgramBodySchema } from '@/features/programs/schemas';
