@@ -53,7 +53,8 @@ function splitHeaderUnit(header: string): { name: string; unit: string | null } 
  *
  * Ragged rows, text or empty cells in numeric columns, a time column that does not increase or is not
  * evenly spaced, and fewer than 16 samples are refused, each with its row number.
- * The sample rate comes from the time column ((n − 1)/(t_last − t_first)) or from `sampleRateHz`.
+ * The sample rate comes from the time column (the slope of the least-squares line through row index and
+ * time) or from `sampleRateHz`.
  * Evenly spaced means every interval within 10 % of the mean plus the resolution of the printed times.
  *
  * @param text the file's content
@@ -166,7 +167,18 @@ export function readCsvRecord(text: string, options: CsvRecordOptions): CsvRecor
       }
     }
     if (errors.length > 0) return { ok: false, message: errors[0].message, errors };
-    const meanDtS = (times[n - 1] - times[0]) / (n - 1);
+    // Interval from the least-squares line through (row index, time): less sensitive to rounded times than the end points.
+    const iMean = (n - 1) / 2;
+    let tMean = 0;
+    for (let r = 0; r < n; r++) tMean += times[r];
+    tMean /= n;
+    let sit = 0;
+    let sii = 0;
+    for (let r = 0; r < n; r++) {
+      sit += (r - iMean) * (times[r] - tMean);
+      sii += (r - iMean) ** 2;
+    }
+    const meanDtS = sit / sii;
     // The printed times are rounded: allow half a unit of their last printed decimal on each of the interval's two ends.
     const resolutionS = 10 ** -Math.max(...timeDecimals) * timeFactor;
     const allowedS = 0.1 * meanDtS + resolutionS;
@@ -174,7 +186,7 @@ export function readCsvRecord(text: string, options: CsvRecordOptions): CsvRecor
       const dt = times[r] - times[r - 1];
       if (Math.abs(dt - meanDtS) > allowedS) {
         return fail(
-          `the time column is not evenly spaced: the interval ending at row ${dataRows[r].line} is ${dt.toPrecision(4)} s, the mean interval ${meanDtS.toPrecision(4)} s`,
+          `the time column is not evenly spaced: the interval ending at row ${dataRows[r].line} is ${dt.toPrecision(4)} s, the fitted interval ${meanDtS.toPrecision(4)} s`,
           dataRows[r].line,
           header[timeIndex],
         );
