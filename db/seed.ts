@@ -10,6 +10,7 @@ import { and, eq, sql } from 'drizzle-orm';
 import { createDatabase, type Database } from '@/db/connection';
 import { getDatabaseEnv } from '@/db/env';
 import { memberships, users, workspaces } from '@/db/schema';
+import { seedWorkspaceData } from '@/db/seed-workspace';
 import type { Role } from '@/lib/auth/roles';
 
 export const demoWorkspace = { slug: 'larkspur', name: 'Larkspur Biosignals' } as const;
@@ -64,7 +65,8 @@ const isMain = process.argv[1] && fileURLToPath(import.meta.url) === process.arg
 if (isMain) {
   const handle = createDatabase(getDatabaseEnv().DATABASE_URL, { connectionLimit: 2 });
   seedDemoWorkspace(handle.db)
-    .then(async () => {
+    .then(async (seeded) => {
+      await seedWorkspaceData(handle.db, { workspaceId: seeded.workspaceId, engineerUserId: seeded.userIds.engineer });
       await handle.close();
       console.log(`[seed] workspace "${demoWorkspace.name}" with demo accounts (e-mail / password / role):`);
       for (const account of demoAccounts) console.log(`  ${account.email}  ${account.password}  ${account.role}`);
