@@ -453,10 +453,8 @@ export function planToNetlist(plan: ChannelPlan, options: NetlistOptions): strin
     } else if (e.imbalanceROhm > 0) {
       L.push(`Rimb e2_p e3_p ${spiceNumber(e.imbalanceROhm)}   ; imbalance resistance (positive lead)`);
       if (e.imbalanceCF > 0) L.push(`Cimb e2_p e3_p ${spiceNumber(e.imbalanceCF)}   ; imbalance capacitance`);
-    } else if (e.imbalanceCF > 0) {
-      L.push(`Cimb e2_p e3_p ${spiceNumber(e.imbalanceCF)}   ; imbalance capacitance (no resistance)`);
     } else {
-      L.push('Vimb e2_p e3_p DC 0   ; no imbalance network');
+      L.push('Vimb e2_p e3_p DC 0   ; no imbalance network (Rimb = 0 shorts Rimb || Cimb)');
     }
     L.push('Vimb_n e2_n e3_n DC 0   ; negative lead: no imbalance network');
     L.push('');

@@ -1,0 +1,173 @@
+/**
+ * The engine against ngspice (Debian package ngspice, version 39 here; the version line is
+ * printed and checked below), run in batch mode on the netlist `planToNetlist` writes for the
+ * same plan: the demo plans, a fixture and seeded random valid plans.
+ *
+ *  - AC: mid-band gain and the response at the engine's −3 dB corners within 0.1 dB
+ *    (netlist without the imbalance network and electrode mismatch, as the engine's response);
+ *  - CMRR with deliberately mismatched resistors within 1 dB: `differenceAmpCmrrDb` (× G1) vs
+ *    ngspice's differential/common-mode gain with ideal-CMRR op-amps, and the stage CMRR
+ *    (`stageCmrrDb` for that resistor set) vs ngspice's worst case over the op-amps' CMRR signs;
+ *  - .noise: the integrated noise referred to input within 5 % over the engine's band.
+ * Everything runs in one ngspice process.
+ */
+import { beforeAll, describe, expect, it } from 'vitest';
+import { differenceAmpCmrrDb, stageCmrrDb } from '@/lib/engine/cmrr';
+import { evaluate } from '@/lib/engine/evaluate';
+import { resolvePlan } from '@/lib/engine/model';
+import type { ChannelPlan } from '@/lib/engine/plan';
+import { profileFor } from '@/lib/engine/profiles';
+import type { ChannelReport } from '@/lib/engine/report';
+import type { InstrumentationResistors, NetlistOptions } from '@/lib/engine/spice-netlist';
+import { integrateDensityVrms, magnitude, magnitudeDbAt, ngspiceVersion, runNgspiceJobs, type AcSweep, type NgspiceJobResult } from '@/scripts/ngspice';
+import { demoPlans, mismatchedResistors, RANDOM_PLAN_COUNT, referencePlans } from '@/unit/helpers/ngspice-cases';
+
+const HALF_POWER_DB = -10 * Math.log10(2);
+const signCombos = [
+  { a1: 1, a2: -1, a3: 1 },
+  { a1: 1, a2: -1, a3: -1 },
+  { a1: -1, a2: 1, a3: 1 },
+  { a1: -1, a2: 1, a3: -1 },
+] as const;
+
+interface Case {
+  name: string;
+  plan: ChannelPlan;
+  report: ChannelReport;
+  resistors: InstrumentationResistors;
+  ac?: AcSweep;
+  noise?: NgspiceJobResult;
+  diffAc?: AcSweep;
+  cmAc?: AcSweep;
+  diffAcWithOpAmps?: AcSweep;
+  cmAcSigns: AcSweep[];
+}
+
+const cases: Case[] = referencePlans().map(({ name, plan }, index) => ({
+  name,
+  plan,
+  report: evaluate(plan),
+  resistors: mismatchedResistors(plan, 1000 + index),
+  cmAcSigns: [],
+}));
+let version = '';
+
+const dbAtFirst = (sweep: AcSweep, node: 'ina') => 20 * Math.log10(magnitude(sweep.re[node][0], sweep.im[node][0]));
+
+beforeAll(() => {
+  version = ngspiceVersion();
+  console.info(`ngspice reference: ${version}; ${demoPlans().length} demo plans, 1 fixture, ${RANDOM_PLAN_COUNT} random plans`);
+  const jobs: { plan: ChannelPlan; options: NetlistOptions }[] = [];
+  const slots: ((r: NgspiceJobResult) => void)[] = [];
+  const add = (plan: ChannelPlan, options: NetlistOptions, store: (r: NgspiceJobResult) => void) => {
+    jobs.push({ plan, options });
+    slots.push(store);
+  };
+  const lowCmrrSweep = { startHz: 1e-3, stopHz: 1e-2, pointsPerDecade: 2 };
+  for (const c of cases) {
+    const stopHz = Math.max(c.plan.adc.sampleRateHz, 3 * c.report.response.highCornerHz);
+    add(c.plan, { analysis: 'ac', imbalance: false, electrodeMismatch: false, stopHz }, (r) => (c.ac = r.ac));
+    add(c.plan, { analysis: 'noise' }, (r) => (c.noise = r));
+    add(c.plan, { analysis: 'ac', resistors: c.resistors, opAmpCmrr: false, ...lowCmrrSweep }, (r) => (c.diffAc = r.ac));
+    add(c.plan, { analysis: 'cmrr', commonModeAt: 'amplifier', resistors: c.resistors, opAmpCmrr: false, ...lowCmrrSweep }, (r) => (c.cmAc = r.cmrr));
+    add(c.plan, { analysis: 'ac', resistors: c.resistors, ...lowCmrrSweep }, (r) => (c.diffAcWithOpAmps = r.ac));
+    for (const signs of signCombos) {
+      add(c.plan, { analysis: 'cmrr', commonModeAt: 'amplifier', resistors: c.resistors, opAmpCmrrSigns: signs, ...lowCmrrSweep }, (r) => c.cmAcSigns.push(r.cmrr!));
+    }
+  }
+  const t0 = Date.now();
+  const results = runNgspiceJobs(jobs);
+  console.info(`ngspice: ${jobs.length} analyses in ${Date.now() - t0} ms`);
+  results.forEach((r, i) => slots[i](r));
+});
+
+describe('the reference tool', () => {
+  it('is ngspice in batch mode', () => {
+    expect(version).toMatch(/ngspice-\d+/);
+  });
+  it('runs the demo plans and at least 20 random plans', () => {
+    expect(cases.length).toBeGreaterThanOrEqual(RANDOM_PLAN_COUNT + 1);
+    expect(RANDOM_PLAN_COUNT).toBeGreaterThanOrEqual(20);
+  });
+});
+
+describe('AC response vs ngspice .ac', () => {
+  it.each(cases.map((c) => [c.name, c] as const))('%s: mid-band gain within 0.1 dB', (_, c) => {
+    const r = c.report.response;
+    const spiceDb = magnitudeDbAt(c.ac!, 'adc', r.midbandHz);
+    expect(Math.abs(r.midbandGainDb - spiceDb), `at ${r.midbandHz} Hz: engine ${r.midbandGainDb} dB, ngspice ${spiceDb} dB`).toBeLessThan(0.1);
+  });
+
+  it.each(cases.map((c) => [c.name, c] as const))('%s: ngspice is −3.01 dB (± 0.1 dB) at the engine\'s corners', (_, c) => {
+    const r = c.report.response;
+    const midDb = magnitudeDbAt(c.ac!, 'adc', r.midbandHz);
+    const highDb = magnitudeDbAt(c.ac!, 'adc', r.highCornerHz) - midDb;
+    expect(Math.abs(highDb - HALF_POWER_DB), `high corner ${r.highCornerHz} Hz: ngspice ${highDb} dB relative to mid-band`).toBeLessThan(0.1);
+    if (r.lowCornerHz > 0) {
+      const lowDb = magnitudeDbAt(c.ac!, 'adc', r.lowCornerHz) - midDb;
+      expect(Math.abs(lowDb - HALF_POWER_DB), `low corner ${r.lowCornerHz} Hz: ngspice ${lowDb} dB relative to mid-band`).toBeLessThan(0.1);
+    } else {
+      // DC-coupled: the engine finds no low corner; ngspice must stay above −3 dB down to the sweep start.
+      const lowestDb = magnitudeDbAt(c.ac!, 'adc', c.ac!.frequencyHz[0]) - midDb;
+      expect(lowestDb, `DC-coupled: ngspice ${lowestDb} dB at ${c.ac!.frequencyHz[0]} Hz`).toBeGreaterThan(HALF_POWER_DB - 0.1);
+    }
+  });
+
+  it.each(cases.map((c) => [c.name, c] as const))('%s: the whole pass band and skirts agree within 0.1 dB (points within 20 dB of mid-band)', (_, c) => {
+    const r = c.report.response;
+    const stopHz = c.ac!.frequencyHz[c.ac!.frequencyHz.length - 1];
+    const points = r.points.filter((p) => p.magDb > r.midbandGainDb - 20 && p.fHz >= 1e-3 && p.fHz <= stopHz);
+    expect(points.length).toBeGreaterThan(20);
+    for (const p of points) {
+      const spiceDb = magnitudeDbAt(c.ac!, 'adc', p.fHz);
+      expect(Math.abs(p.magDb - spiceDb), `at ${p.fHz} Hz: engine ${p.magDb} dB, ngspice ${spiceDb} dB`).toBeLessThan(0.1);
+    }
+  });
+});
+
+describe('CMRR with deliberately mismatched resistors vs ngspice (common-mode and differential gain at 1 mHz)', () => {
+  it.each(cases.map((c) => [c.name, c] as const))('%s: G1 × differenceAmpCmrrDb within 1 dB (ideal-CMRR op-amps)', (_, c) => {
+    const s = c.resistors;
+    const g1 = 1 + (s.r1Ohm + s.r2Ohm) / s.rgOhm;
+    const engineDb = 20 * Math.log10(g1) + differenceAmpCmrrDb({ r1Ohm: s.r3InvOhm, r2Ohm: s.r4InvOhm, r3Ohm: s.r3RefOhm, r4Ohm: s.r4RefOhm });
+    const spiceDb = dbAtFirst(c.diffAc!, 'ina') - dbAtFirst(c.cmAc!, 'ina');
+    expect(Math.abs(engineDb - spiceDb), `resistors ${JSON.stringify(s)}: engine ${engineDb} dB, ngspice ${spiceDb} dB`).toBeLessThan(1);
+  });
+
+  it.each(cases.map((c) => [c.name, c] as const))('%s: the stage CMRR at DC (resistors + op-amp CMRR, worst-case signs) within 1 dB', (_, c) => {
+    const s = c.resistors;
+    const diffDb = differenceAmpCmrrDb({ r1Ohm: s.r3InvOhm, r2Ohm: s.r4InvOhm, r3Ohm: s.r3RefOhm, r4Ohm: s.r4RefOhm });
+    const resolved = resolvePlan(c.plan, profileFor(c.plan.profileId, c.plan.customProfile));
+    const engineDb = stageCmrrDb(resolved, 0, { diffCmrr: 10 ** (diffDb / 20) });
+    const worstCmDb = Math.max(...c.cmAcSigns.map((sweep) => dbAtFirst(sweep, 'ina')));
+    const spiceDb = dbAtFirst(c.diffAcWithOpAmps!, 'ina') - worstCmDb;
+    expect(c.cmAcSigns.length).toBe(signCombos.length);
+    expect(Math.abs(engineDb - spiceDb), `op-amp CMRR ${c.plan.instrumentation.opAmp.cmrrDb} dB, G1 ${c.report.gains.g1}: engine ${engineDb} dB, ngspice ${spiceDb} dB`).toBeLessThan(1);
+  });
+
+  it('Sedra & Smith check on the same path: gain-100 difference amplifier with 1 % resistors worst case → about 68 dB', () => {
+    // worst case: R3ref −1 %, R4ref +1 %, R3inv +1 %, R4inv −1 %: CMRR = 20·log10((1 + Gd)/(4t)) ≈ 68.1 dB
+    const t = 0.01;
+    const db = differenceAmpCmrrDb({ r1Ohm: 1e3 * (1 + t), r2Ohm: 100e3 * (1 - t), r3Ohm: 1e3 * (1 - t), r4Ohm: 100e3 * (1 + t) });
+    expect(Math.abs(db - 20 * Math.log10(101 / 0.04))).toBeLessThan(0.1);
+  });
+});
+
+describe('noise referred to input vs ngspice .noise', () => {
+  it.each(cases.map((c) => [c.name, c] as const))('%s: integrated RTI noise within 5 %', (_, c) => {
+    const n = c.report.noise;
+    const sweep = c.noise!;
+    const midV = 10 ** (magnitudeDbAt(sweep.ac!, 'adc', c.report.response.midbandHz) / 20);
+    const outputRmsV = integrateDensityVrms(sweep.noise!.frequencyHz, sweep.noise!.outputVPerRtHz, n.bandLowHz, n.bandHighHz);
+    const spiceRtiV = outputRmsV / midV;
+    const top = [...n.contributions].sort((a, b) => b.share - a.share).slice(0, 3).map((x) => `${x.name} ${(x.share * 100).toFixed(0)} %`);
+    expect(Math.abs(n.rtiRmsV / spiceRtiV - 1), `band ${n.bandLowHz}–${n.bandHighHz} Hz: engine ${n.rtiRmsV} V rms, ngspice ${spiceRtiV} V rms (largest: ${top.join(', ')})`).toBeLessThan(0.05);
+  });
+
+  it('ngspice\'s own integral agrees with the log-log integration used above (fixture, full sweep)', () => {
+    const c = cases.find((x) => x.name === 'fixture')!;
+    const s = c.noise!.noise!;
+    const mine = integrateDensityVrms(s.frequencyHz, s.outputVPerRtHz, s.frequencyHz[0], s.frequencyHz[s.frequencyHz.length - 1]);
+    expect(Math.abs(mine / s.outputTotalVrms - 1)).toBeLessThan(0.002);
+  });
+});
