@@ -98,6 +98,8 @@ export interface RecordAnalysis {
 export type AnalyzeResult = { ok: true; analysis: RecordAnalysis } | { ok: false; message: string };
 
 const MIN_WINDOW_SAMPLES = 64;
+/** Largest window, samples (2^18: e.g. 2 min at 2 kHz); keeps the transforms within about 100 MB. */
+export const MAX_WINDOW_SAMPLES = 262_144;
 const SPECTRUM_POINTS = 400;
 
 function hann(n: number): Float64Array {
@@ -305,6 +307,9 @@ export function analyzeRecord(signal: RecordSignal, options: AnalyzeOptions): An
     return { ok: false, message: `the window (${startS} s + ${o.windowS} s) is longer than the record (${recordS.toFixed(3)} s)` };
   }
   if (n < MIN_WINDOW_SAMPLES) return { ok: false, message: `the window holds ${n} samples; at least ${MIN_WINDOW_SAMPLES} are needed` };
+  if (n > MAX_WINDOW_SAMPLES) {
+    return { ok: false, message: `the window holds ${n.toLocaleString('en-US')} samples; at most ${MAX_WINDOW_SAMPLES.toLocaleString('en-US')} are analysed at once (shorten the window)` };
+  }
   for (let i = 0; i < signal.samples.length; i++) {
     if (!Number.isFinite(signal.samples[i])) return { ok: false, message: `sample ${i + 1} is not a finite number` };
   }
@@ -438,6 +443,10 @@ export function analyzeRecord(signal: RecordSignal, options: AnalyzeOptions): An
     }
   }
 
+  const clipping = detectClipping(signal.samples, fs, o.clipLimits);
+  const clippedInWindow = clipping.runs.some((r) => r.startS + r.durationS > first / fs && r.startS < (first + n) / fs);
+  if (clippedInWindow) notes.push('the signal clips inside the window: offset, noise and mains figures there are not reliable');
+
   return {
     ok: true,
     analysis: {
@@ -453,7 +462,7 @@ export function analyzeRecord(signal: RecordSignal, options: AnalyzeOptions): An
       noiseBandHighHz: o.bandHighHz,
       mainsExcludedHz: excludedBins * extBinHz,
       mains: { frequencyHz: f1, amplitudeV: a1, ppV: 2 * a1, harmonics, withHarmonicsPpV: fitHi - fitLo },
-      clipping: detectClipping(signal.samples, fs, o.clipLimits),
+      clipping,
       spectrum: { frequencyHz: freqOut, asdVPerRtHz: asdOut },
       notes,
     },

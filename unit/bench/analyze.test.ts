@@ -150,6 +150,7 @@ describe('clipping', () => {
     expect(a.clipping.clippedSamples).toBeGreaterThanOrEqual(beyond);
     expect(a.clipping.clippedSamples).toBeLessThanOrEqual(near);
     expect(a.clipping.runs[0].level === 'high' || a.clipping.runs[0].level === 'low').toBe(true);
+    expect(a.notes).toContain('the signal clips inside the window: offset, noise and mains figures there are not reliable');
   });
 
   it('finds flat tops without limits', () => {
@@ -174,10 +175,18 @@ describe('analyzeRecord refuses bad options and signals', () => {
     [{ windowS: 11 }, 'the window (0 s + 11 s) is longer than the record (10.000 s)'],
     [{ gainToInput: 0 }, 'gain to input must be a positive number'],
     [{ windowS: 0.05 }, 'the window holds 50 samples; at least 64 are needed'],
+    [{ windowStartS: 9.5, windowS: 1 }, 'the window (9.5 s + 1 s) is longer than the record (10.000 s)'],
     [{ mainsHz: 55 as 50 }, 'mains frequency must be 50 or 60 Hz'],
     [{ clipLimits: { lowV: 1, highV: -1 } }, 'clip limits: the high rail must be above the low rail'],
   ] as Array<[Partial<AnalyzeOptions>, string]>)('%j', (change, message) => {
     expect(analyzeRecord(signalOf(s), { ...options, ...change })).toEqual({ ok: false, message });
+  });
+  it('refuses a window beyond the size limit', () => {
+    const long = new Float64Array(300_000);
+    expect(analyzeRecord(signalOf(long), { ...options, windowS: 300 })).toEqual({
+      ok: false,
+      message: 'the window holds 300,000 samples; at most 262,144 are analysed at once (shorten the window)',
+    });
   });
   it('refuses a non-voltage signal and non-finite samples', () => {
     expect(analyzeRecord({ ...signalOf(s), siUnit: null, physicalDimension: 'degC' }, options)).toEqual({ ok: false, message: 'signal "lead I" is in "degC", not a voltage' });

@@ -29,6 +29,13 @@ describe('readCsvRecord', () => {
     expect(r.signals[0].sampleRateHz).toBe(250);
   });
 
+  it('reads a single headerless column with a given sample rate', () => {
+    const r = readCsvRecord(rows(16, (i) => `${i * 0.1}`), { unit: 'V', gainApplied: false, sampleRateHz: 100 });
+    if (!r.ok) throw new Error(r.message);
+    expect(r.signals).toHaveLength(1);
+    expect(r.signals[0].samples[15]).toBeCloseTo(1.5, 12);
+  });
+
   it('accepts times printed with limited resolution (300 Hz printed to 1 ms)', () => {
     // Rounding to 1 ms leaves ±0.5 ms on each time (σ = 1 ms/√12); over 300 samples the least-squares interval
     // has a standard error of σ/√(n(n² − 1)/12) ≈ 0.19 µs, i.e. 0.006 % of 3.33 ms: tolerance 0.1 Hz (≈ 5σ).
