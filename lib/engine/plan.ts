@@ -19,7 +19,11 @@ export const builtInProfileIds = [
 export type BuiltInProfileId = (typeof builtInProfileIds)[number];
 
 const finite = (what: string) =>
-  z.number({ error: `${what} must be a number` }).refine(Number.isFinite, { message: `${what} must be a finite number` });
+  z
+    .number({
+      error: (issue) =>
+        typeof issue.input === 'number' ? `${what} must be a finite number` : issue.input === undefined ? 'is required' : `${what} must be a number`,
+    }).refine(Number.isFinite, { message: `${what} must be a finite number` });
 /** A strictly positive finite quantity (resistance, capacitance, frequency, ...). */
 const positive = (what: string) => finite(what).refine((v) => v > 0, { message: `${what} must be greater than zero` });
 /** A finite quantity that may be zero but not negative. */
