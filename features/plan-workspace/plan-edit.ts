@@ -159,6 +159,18 @@ export function gainResistorFor(rOhm: number, gain: number): number {
   return gain <= 1 ? Number.POSITIVE_INFINITY : (2 * rOhm) / (gain - 1);
 }
 
+/**
+ * The value as a person reads it (select options by their label, check boxes as yes/no);
+ * for read-only views and change lists.
+ */
+export function valueToDisplay(field: FieldDef, value: unknown): string {
+  if (value === undefined || value === null) return '(not set)';
+  if (field.kind === 'select') return field.options.find((o) => o.value === value)?.label ?? String(value);
+  if (field.kind === 'quantity' && typeof value === 'number') return formatEng(value, field.symbol, { digits: 4 });
+  const text = valueToText(field, value);
+  return text === '' ? '(empty)' : text;
+}
+
 export interface PlanChange {
   path: string[];
   /** The field's label, or the dotted path when the forms do not show it. */
@@ -171,7 +183,7 @@ export interface PlanChange {
 function describeValue(path: string[], value: unknown): string {
   const found = findField(path);
   if (value === undefined) return '(not set)';
-  if (found) return valueToText(found.field, value) || '(empty)';
+  if (found) return valueToDisplay(found.field, value);
   if (typeof value === 'object') return JSON.stringify(value);
   return String(value);
 }
