@@ -294,3 +294,184 @@ export const parts = mysqlTable(
 export type Program = typeof programs.$inferSelect;
 export type ChannelPlanRow = typeof channelPlans.$inferSelect;
 export type PartRow = typeof parts.$inferSelect;
+
+// ───────────────────────────────────────────────────────────────────────────────────────────────
+// Revisions and design reviews.
+// A revision's content (plan, report, hash, label, summary, author) is frozen when it is created:
+// the custom migration installs triggers that refuse any UPDATE of those columns and any DELETE.
+// Only `state` / `state_changed_at` may move, along the allowed transitions, and every move is
+// appended to `revision_state_events` (append-only, like signatures and reviewer lists).
+// ───────────────────────────────────────────────────────────────────────────────────────────────
+import { text } from 'drizzle-orm/mysql-core';
+
+/** Revision states: draft → in-review → released | changes-requested; released → superseded. */
+export const revisionStateValues = ['draft', 'in-review', 'released', 'changes-requested', 'superseded'] as const;
+/** What a signature means. */
+export const signatureMeaningValues = ['approved', 'changes-requested'] as const;
+/** Review request lifecycle. */
+export const reviewStatusValues = ['open', 'approved', 'changes-requested', 'closed'] as const;
+/** What a review comment is anchored to. */
+export const commentAnchorKindValues = ['stage', 'check'] as const;
+
+/** An immutable snapshot of a channel plan with its server-computed report. */
+export const planRevisions = mysqlTable(
+  'plan_revisions',
+  {
+    id: idColumn(),
+    workspaceId: idRef('workspace_id')
+      .notNull()
+      .references(() => workspaces.id),
+    planId: idRef('plan_id')
+      .notNull()
+      .references(() => channelPlans.id),
+    /** 1, 2, 3, ... per plan; the label is derived from it (1 → A, 27 → AA). */
+    sequence: int('sequence').notNull(),
+    label: varchar('label', { length: 3 }).notNull(),
+    changeSummary: varchar('change_summary', { length: 4000 }).notNull(),
+    /** The plan's version number the revision was frozen from. */
+    planVersion: int('plan_version').notNull(),
+    plan: jsonDocument<Record<string, unknown>>('plan').notNull(),
+    report: jsonDocument<unknown>('report').notNull(),
+    /** SHA-256 of the canonical JSON of { plan, report }, 64 lowercase hex digits. */
+    contentHash: char('content_hash', { length: 64 }).notNull(),
+    worstVerdict: mysqlEnum('worst_verdict', ['meets', 'marginal', 'fails']),
+    createdByUserId: idRef('created_by_user_id')
+      .notNull()
+      .references(() => users.id),
+    createdAt: createdAt(),
+    /** The only mutable columns (the trigger checks the transition). */
+    state: mysqlEnum('state', revisionStateValues).notNull().default('draft'),
+    stateChangedAt: datetime('state_changed_at', { mode: 'date', fsp: 3 })
+      .notNull()
+      .default(sql`CURRENT_TIMESTAMP(3)`),
+  },
+  (t) => [
+    uniqueIndex('plan_revisions_plan_sequence_unique').on(t.planId, t.sequence),
+    uniqueIndex('plan_revisions_plan_label_unique').on(t.planId, t.label),
+    index('plan_revisions_workspace_state_idx').on(t.workspaceId, t.state),
+  ],
+);
+
+/** Append-only history of a revision's state. */
+export const revisionStateEvents = mysqlTable(
+  'revision_state_events',
+  {
+    id: idColumn(),
+    workspaceId: idRef('workspace_id')
+      .notNull()
+      .references(() => workspaces.id),
+    revisionId: idRef('revision_id')
+      .notNull()
+      .references(() => planRevisions.id),
+    /** Null for the creation of the revision. */
+    fromState: mysqlEnum('from_state', revisionStateValues),
+    toState: mysqlEnum('to_state', revisionStateValues).notNull(),
+    actorUserId: idRef('actor_user_id').references(() => users.id),
+    at: datetime('at', { mode: 'date', fsp: 3 })
+      .notNull()
+      .default(sql`CURRENT_TIMESTAMP(3)`),
+    reason: varchar('reason', { length: 500 }).notNull().default(''),
+  },
+  (t) => [index('revision_state_events_revision_idx').on(t.revisionId)],
+);
+
+/** A request for review of one revision, sent to chosen reviewers. */
+export const reviewRequests = mysqlTable(
+  'review_requests',
+  {
+    id: idColumn(),
+    workspaceId: idRef('workspace_id')
+      .notNull()
+      .references(() => workspaces.id),
+    revisionId: idRef('revision_id')
+      .notNull()
+      .references(() => planRevisions.id),
+    requestedByUserId: idRef('requested_by_user_id')
+      .notNull()
+      .references(() => users.id),
+    message: varchar('message', { length: 2000 }).notNull().default(''),
+    status: mysqlEnum('status', reviewStatusValues).notNull().default('open'),
+    requestedAt: datetime('requested_at', { mode: 'date', fsp: 3 })
+      .notNull()
+      .default(sql`CURRENT_TIMESTAMP(3)`),
+    closedAt: datetime('closed_at', { mode: 'date', fsp: 3 }),
+  },
+  (t) => [index('review_requests_revision_idx').on(t.revisionId)],
+);
+
+/** The reviewers a request names (append-only); every one of them must approve. */
+export const reviewRequestReviewers = mysqlTable(
+  'review_request_reviewers',
+  {
+    id: idColumn(),
+    reviewRequestId: idRef('review_request_id')
+      .notNull()
+      .references(() => reviewRequests.id),
+    reviewerUserId: idRef('reviewer_user_id')
+      .notNull()
+      .references(() => users.id),
+  },
+  (t) => [uniqueIndex('review_request_reviewers_unique').on(t.reviewRequestId, t.reviewerUserId)],
+);
+
+/** A comment on a revision, anchored to a stage or a check; replies name their parent. */
+export const reviewComments = mysqlTable(
+  'review_comments',
+  {
+    id: idColumn(),
+    workspaceId: idRef('workspace_id')
+      .notNull()
+      .references(() => workspaces.id),
+    revisionId: idRef('revision_id')
+      .notNull()
+      .references(() => planRevisions.id),
+    parentCommentId: idRef('parent_comment_id'),
+    authorUserId: idRef('author_user_id')
+      .notNull()
+      .references(() => users.id),
+    anchorKind: mysqlEnum('anchor_kind', commentAnchorKindValues).notNull(),
+    anchorId: varchar('anchor_id', { length: 100 }).notNull(),
+    body: text('body').notNull(),
+    createdAt: createdAt(),
+    /** Resolution is the only change a comment allows (trigger-enforced). */
+    resolvedAt: datetime('resolved_at', { mode: 'date', fsp: 3 }),
+    resolvedByUserId: idRef('resolved_by_user_id').references(() => users.id),
+  },
+  (t) => [index('review_comments_revision_idx').on(t.revisionId)],
+);
+
+/** A reviewer's decision, signed by re-entering the password; append-only. */
+export const reviewSignatures = mysqlTable(
+  'review_signatures',
+  {
+    id: idColumn(),
+    workspaceId: idRef('workspace_id')
+      .notNull()
+      .references(() => workspaces.id),
+    revisionId: idRef('revision_id')
+      .notNull()
+      .references(() => planRevisions.id),
+    reviewRequestId: idRef('review_request_id')
+      .notNull()
+      .references(() => reviewRequests.id),
+    signerUserId: idRef('signer_user_id')
+      .notNull()
+      .references(() => users.id),
+    /** The signer's workspace role when signing. */
+    signerRole: mysqlEnum('signer_role', roles).notNull(),
+    meaning: mysqlEnum('meaning', signatureMeaningValues).notNull(),
+    /** The content hash of the revision the signer saw. */
+    contentHash: char('content_hash', { length: 64 }).notNull(),
+    note: varchar('note', { length: 2000 }).notNull().default(''),
+    signedAt: datetime('signed_at', { mode: 'date', fsp: 3 })
+      .notNull()
+      .default(sql`CURRENT_TIMESTAMP(3)`),
+  },
+  (t) => [uniqueIndex('review_signatures_request_signer_unique').on(t.reviewRequestId, t.signerUserId)],
+);
+
+export type PlanRevisionRow = typeof planRevisions.$inferSelect;
+export type RevisionStateEventRow = typeof revisionStateEvents.$inferSelect;
+export type ReviewRequestRow = typeof reviewRequests.$inferSelect;
+export type ReviewCommentRow = typeof reviewComments.$inferSelect;
+export type ReviewSignatureRow = typeof reviewSignatures.$inferSelect;
