@@ -155,7 +155,7 @@ export async function createPlan({
       .select({ id: programs.id, archivedAt: programs.archivedAt })
       .from(programs)
       .where(and(eq(programs.id, programId), eq(programs.workspaceId, workspaceId)))
-      .for('share');
+      .for('update'); // MariaDB has no FOR SHARE; the row lock keeps the program from being archived meanwhile
     if (!program) return { status: 'not-found' } as const;
     if (program.archivedAt) return { status: 'program-archived' } as const;
 
