@@ -18,8 +18,11 @@
  * slew rate and recovery from saturation (a clipped node simply holds its limit).
  */
 import { mcSharryEcg } from './ecg-model';
+import { evaluate } from './evaluate';
+import { equivalentNoiseBandwidthHz } from './filters';
 import type { ChannelPlan } from './plan';
 import { profileFor } from './profiles';
+import type { ChannelReport, NodeLevel } from './report';
 import { lowPassSections } from './spice-netlist';
 
 // ---------------------------------------------------------------------------------------------
@@ -196,8 +199,9 @@ export function nodeRangesFromPlan(plan: ChannelPlan): Record<WaveformNode, Node
 }
 
 /**
- * The simulation context from the plan alone (no interference or noise terms: pass them in
- * `overrides`, e.g. from the report).
+ * The simulation context from the plan alone: node ranges from the op-amp and converter
+ * parameters, no interference and no noise (pass them in `overrides`). See `waveformContext`
+ * for the context taken from the report.
  */
 export function waveformContextFromPlan(plan: ChannelPlan, overrides: Partial<WaveformContext> = {}): WaveformContext {
   const profile = profileFor(plan.profileId, plan.customProfile);
@@ -211,6 +215,52 @@ export function waveformContextFromPlan(plan: ChannelPlan, overrides: Partial<Wa
     noiseRmsV: 0,
     noiseBandwidthHz: Math.max(profile.band.highHz - profile.band.lowHz, 1),
     application: profile.application,
+    ...overrides,
+  };
+}
+
+/** Finds a node of the report by stage and name. */
+function reportNode(report: ChannelReport, stageId: string, name: string): NodeLevel | undefined {
+  return report.stages.find((s) => s.id === stageId)?.nodes.find((n) => n.name === name);
+}
+
+/**
+ * The simulation context from the engine's report: each node's allowed range from the report's
+ * stage levels, the worst-case DC input without the signal (electrode offset, bias and lead-off
+ * terms, op-amp offsets), the body common mode and the differential interference left at the
+ * input, and the RTI noise. The noise is injected white at the input with the density that gives
+ * the report's rms through the chain's noise bandwidth (the low-pass noise bandwidth less the
+ * high-pass's π/2·fc); its 1/f colour is not reproduced.
+ * @param plan a valid channel plan
+ * @param report `evaluate(plan)`
+ * @param overrides values that replace the derived ones
+ */
+export function waveformContext(plan: ChannelPlan, report: ChannelReport, overrides: Partial<WaveformContext> = {}): WaveformContext {
+  const fallback = waveformContextFromPlan(plan);
+  const range = (node: NodeLevel | undefined, dflt: NodeRange): NodeRange => (node ? { minV: node.lowLimitV, maxV: node.highLimitV } : dflt);
+  const va = range(reportNode(report, 'instrumentation', 'VA'), fallback.limits.va);
+  const vb = range(reportNode(report, 'instrumentation', 'VB'), fallback.limits.vb);
+  const g2 = range(reportNode(report, 'gain-stage', 'gain-stage output'), fallback.limits.g2);
+  const lp = plan.gainStage.lowPass;
+  const hpNoiseBandwidthHz = plan.highPass.order === 0 ? 0 : (Math.PI / 2) * plan.highPass.fcHz;
+  const noiseBandwidthHz = Math.max(equivalentNoiseBandwidthHz(lp.kind, lp.order, lp.fcHz) - hpNoiseBandwidthHz, lp.fcHz / 10);
+  return {
+    ...fallback,
+    limits: {
+      input: range(reportNode(report, 'instrumentation', 'IN+ (V1)'), fallback.limits.input),
+      va,
+      vb,
+      ina: range(reportNode(report, 'instrumentation', 'VOUT'), fallback.limits.ina),
+      hp: range(reportNode(report, 'high-pass', 'high-pass output'), fallback.limits.hp),
+      g2,
+      lp: g2,
+      adc: range(reportNode(report, 'adc', 'ADC input'), fallback.limits.adc),
+    },
+    offsetV: Math.max(0, report.worstCaseInputV - fallback.signalAmplitudeV),
+    commonModeMainsPeakV: report.interference.bodyCmV * Math.SQRT2,
+    mainsDifferentialPeakV: report.interference.rtiPpV / 2,
+    noiseRmsV: report.noise.rtiRmsV,
+    noiseBandwidthHz,
     ...overrides,
   };
 }
@@ -311,7 +361,14 @@ export interface WaveformOptions {
   drift?: { amplitudeV?: number; frequencyHz?: number };
   /** Most points per trace for display (min/max envelope decimation), default 2000. */
   maxDisplayPoints?: number;
-  /** Values that replace the context derived from the plan (limits, interference, noise ...). */
+  /** The plan's report (`evaluate(plan)`); computed when not given. */
+  report?: ChannelReport;
+  /**
+   * `report` (default): limits, offset, interference and noise from the engine's report;
+   * `plan`: limits from the plan's op-amp and converter parameters, no interference or noise.
+   */
+  contextFrom?: 'report' | 'plan';
+  /** Values that replace the derived context (limits, interference, noise ...). */
   context?: Partial<WaveformContext>;
 }
 
@@ -371,7 +428,10 @@ export function simulateChain(plan: ChannelPlan, options: WaveformOptions): Chai
   checkOptions(plan, options);
   const fs = options.sampleRateHz;
   const n = Math.max(2, Math.round(options.durationS * fs));
-  const ctx = waveformContextFromPlan(plan, options.context);
+  const ctx =
+    options.contextFrom === 'plan'
+      ? waveformContextFromPlan(plan, options.context)
+      : waveformContext(plan, options.report ?? evaluate(plan), options.context);
   const include: WaveformIncludes = { signal: true, offset: true, drift: true, mains: true, noise: true, ...options.include };
   const rand = mulberry32(options.seed);
   const signalKind = options.signal ?? ctx.application;

@@ -18,6 +18,8 @@ import {
   simulateWaveforms,
   type Biquad,
 } from '@/lib/engine/waveforms';
+import { evaluate } from '@/lib/engine/evaluate';
+import { demoPlans } from '@/unit/helpers/ngspice-cases';
 import { fixturePlan, fixturePlanInput } from '@/unit/helpers/ngspice-plans';
 
 function withPlan(patch: (p: typeof fixturePlanInput) => void): ChannelPlan {
@@ -143,8 +145,10 @@ describe('high-pass removes a DC offset with the right time constant', () => {
     const sim = simulateChain(fixturePlan, { durationS: 2, sampleRateHz: 1000, seed: 2, include: { signal: false, drift: false, mains: false, noise: false } });
     const vref = fixturePlan.supply.referenceV;
     expect(Math.max(...Array.from(sim.nodes.hp, (v) => Math.abs(v - vref)))).toBeLessThan(1e-9);
-    // worst-case offset (the profile's 300 mV) × G1·Gd = 1.2 V on the instrumentation output
-    expect(sim.nodes.ina[0] - vref).toBeCloseTo(0.3 * 4, 9);
+    // worst-case DC input without the signal: the profile's 300 mV offset + bias 1 nA × 51 kΩ imbalance
+    // + two op-amp offsets of 50 µV (the three-op-amp levels analysis), × G1·Gd = 4 on the instrumentation output
+    const dcInputV = 0.3 + 1e-9 * 51e3 + 2 * 50e-6;
+    expect(sim.nodes.ina[0] - vref).toBeCloseTo(dcInputV * 4, 9);
   });
 });
 
@@ -311,5 +315,57 @@ describe('low-frequency impulse test in the time domain (3 mV × 100 ms)', () =>
       const got = y[Math.round(tS * fs + 0.5)];
       expect(Math.abs(got - expected), `t = ${tS}: ${got} vs ${expected}`).toBeLessThan(0.005);
     }
+  });
+});
+
+describe('the simulation takes its limits, interference and noise from the report', () => {
+  it('node ranges are the report\'s stage limits; mains and common mode are the report\'s interference figures', () => {
+    const report = evaluate(fixturePlan);
+    const result = simulateWaveforms(fixturePlan, { durationS: 1, sampleRateHz: 2000, seed: 11, report });
+    const va = report.stages.find((s) => s.id === 'instrumentation')!.nodes.find((n) => n.name === 'VA')!;
+    expect(result.context.limits.va).toEqual({ minV: va.lowLimitV, maxV: va.highLimitV });
+    const adc = report.stages.find((s) => s.id === 'adc')!.nodes[0];
+    expect(result.context.limits.adc).toEqual({ minV: adc.lowLimitV, maxV: adc.highLimitV });
+    expect(result.context.mainsDifferentialPeakV).toBe(report.interference.rtiPpV / 2);
+    expect(result.context.commonModeMainsPeakV).toBeCloseTo(report.interference.bodyCmV * Math.SQRT2, 15);
+    expect(result.context.noiseRmsV).toBe(report.noise.rtiRmsV);
+  });
+
+  it('the mains terms alone: the differential input is a sine of the report\'s p-p/2, VA carries the body common mode', () => {
+    const report = evaluate(fixturePlan);
+    const sim = simulateChain(fixturePlan, { durationS: 1, sampleRateHz: 2000, seed: 12, report, include: { signal: false, offset: false, drift: false, noise: false, mains: true } });
+    const peak = Math.max(...Array.from(sim.input, Math.abs));
+    expect(peak / (report.interference.rtiPpV / 2)).toBeCloseTo(1, 3);
+    // VA − Vcm = G1·Vd/2, so (VA + VB)/2 is the common mode alone
+    const cmPeak = Math.max(...Array.from(sim.nodes.va, (v, i) => Math.abs((v + sim.nodes.vb[i]) / 2 - fixturePlan.supply.referenceV)));
+    expect(cmPeak / (report.interference.bodyCmV * Math.SQRT2)).toBeCloseTo(1, 3);
+  });
+
+  it('the noise alone: the rms at the converter referred to input is near the report\'s RTI rms (white approximation, within 30 %)', () => {
+    const report = evaluate(fixturePlan);
+    const sim = simulateChain(fixturePlan, { durationS: 20, sampleRateHz: 2000, seed: 13, report, include: { signal: false, offset: false, drift: false, mains: false, noise: true } });
+    const vref = fixturePlan.supply.referenceV;
+    const tail = sim.nodes.lp.subarray(4000);
+    const mean = tail.reduce((a, v) => a + v, 0) / tail.length;
+    const rms = Math.sqrt(tail.reduce((a, v) => a + (v - mean) ** 2, 0) / tail.length) / report.gains.totalGain;
+    expect(Math.abs(mean - vref)).toBeLessThan(1e-2);
+    expect(Math.abs(rms / report.noise.rtiRmsV - 1), `simulated ${rms} V rms vs report ${report.noise.rtiRmsV} V rms`).toBeLessThan(0.3);
+  });
+
+  it.each(demoPlans().map((d) => [d.name, d.plan] as const))('%s: nodes the report finds out of range are clipped in the simulation, the others never', (_, plan) => {
+    const report = evaluate(plan);
+    const sampleRateHz = Math.max(2000, 4 * plan.gainStage.lowPass.fcHz);
+    const result = simulateWaveforms(plan, { durationS: 5, sampleRateHz, seed: 14, report, include: { drift: false } });
+    const byNode = Object.fromEntries(result.traces.map((t) => [t.node, t.clippedFraction]));
+    const inst = report.stages.find((s) => s.id === 'instrumentation')!.nodes;
+    const vaHeadroom = inst.find((n) => n.name === 'VA')!.headroomV;
+    const voutHeadroom = inst.find((n) => n.name === 'VOUT')!.headroomV;
+    if (vaHeadroom < 0) expect(byNode.va).toBeGreaterThan(0.9);
+    else expect(byNode.va).toBe(0);
+    if (voutHeadroom < 0) expect(byNode.ina).toBeGreaterThan(0.9);
+    else expect(byNode.ina).toBe(0);
+    const failing = report.checks.filter((c) => c.id.startsWith('headroom-') && c.verdict === 'fails').length;
+    const clippedNodes = result.traces.filter((t) => t.clippedFraction > 0).length;
+    expect(clippedNodes > 0).toBe(failing > 0);
   });
 });
