@@ -105,7 +105,6 @@ export function noiseBudget(r: Resolved, pointCount = 240): NoiseReport {
   const lsbV = p.adc.fullScaleV / 2 ** p.adc.bits;
   const adcDensity2 = (p.adc.inputNoiseVrms * p.adc.inputNoiseVrms) / (fs / 2);
   const quantDensity2 = (lsbV * lsbV) / 12 / (fs / 2);
-  const G2 = r.totalGain * r.totalGain;
   const sources: Source[] = [
     { name: 'electrode thermal noise', stageId: 'electrodes', at: (i) => kT4 * electrodeRe[i] * full[i] },
     { name: 'imbalance network thermal noise', stageId: 'electrodes', at: (i) => kT4 * imbalanceRe[i] * full[i] },
@@ -124,8 +123,8 @@ export function noiseBudget(r: Resolved, pointCount = 240): NoiseReport {
     },
     { name: 'gain-stage op-amp', stageId: 'gain-stage', at: (i) => en2(op2.enVPerRtHz, op2.enCornerHz, grid[i]) * gainStageOnly[i] },
     { name: 'filter network', stageId: 'gain-stage', at: (i) => p.gainStage.filterNoiseVPerRtHz ** 2 * lpOnly[i] },
-    { name: 'ADC input noise', stageId: 'adc', at: () => adcDensity2 / G2 },
-    { name: 'ADC quantization', stageId: 'adc', at: () => quantDensity2 / G2 },
+    { name: 'ADC input noise', stageId: 'adc', at: () => adcDensity2 / mid2 },
+    { name: 'ADC quantization', stageId: 'adc', at: () => quantDensity2 / mid2 },
   ];
   const dl = Math.log(grid[1] / grid[0]);
   const power = new Float64Array(sources.length);

@@ -37,7 +37,7 @@ type RawIssue = { code?: string; path: readonly PropertyKey[]; message: string }
 
 function describe(input: unknown, issue: RawIssue): PlanIssue {
   const path = dotted(issue.path);
-  if (issue.code === 'invalid_type' && path !== '' && readAt(input, issue.path) === undefined) {
+  if (issue.code !== 'custom' && path !== '' && readAt(input, issue.path) === undefined) {
     return { path, message: 'is required' };
   }
   if (issue.code === 'invalid_type' && path === '') return { path, message: 'the plan must be a JSON object' };
