@@ -1,0 +1,14 @@
+'use client';
+import { signOut } from 'next-auth/react';
+
+export function SignOutButton() {
+  return (
+    <button
+      type="button"
+      onClick={() => signOut({ callbackUrl: '/sign-in' })}
+      className="rounded-md border border-white/30 px-3 py-1.5 text-sm text-white hover:bg-white/10"
+    >
+      Sign out
+    </button>
+  );
+}
