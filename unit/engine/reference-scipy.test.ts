@@ -6,6 +6,10 @@
  */
 import { beforeAll, describe, expect, it } from 'vitest';
 import { highPassAt, lowPassAt, equivalentNoiseBandwidthHz, type LowPassKind } from '@/lib/engine/filters';
+import { pulseTest } from '@/lib/engine/impulse';
+import { planSchema } from '@/lib/engine/plan';
+import { simulateImpulseTest } from '@/lib/engine/waveforms';
+import { fixturePlanInput } from '@/unit/helpers/ngspice-plans';
 import { normalizedLowPassPoles } from '@/lib/engine/spice-netlist';
 import { runScipy, type ScipyBatch, type ScipyRequest } from '@/unit/helpers/scipy';
 
@@ -18,6 +22,9 @@ const lowPassFcHz = 150;
 const highPassFcHz = 0.05;
 
 const lowPassCases = families.flatMap((family) => lowPassOrders.map((order) => ({ family, order })));
+/** Impulse-test cases: 3 mV × 100 ms through first- and second-order high-passes. */
+const impulseCases = ([1, 2] as const).flatMap((hpOrder) => [0.05, 0.32, 0.5, 0.67].map((fcHz) => ({ hpOrder, fcHz })));
+const PULSE = { amplitudeV: 3e-3, widthS: 0.1, delayS: 0.2 };
 
 interface Labeled {
   label: string;
@@ -35,6 +42,11 @@ const requests: Labeled[] = [
   })),
   ...lowPassCases.map(({ family, order }) => ({ label: `poles ${family} ${order}`, request: { kind: 'poles', family, order } as ScipyRequest })),
   ...lowPassCases.map(({ family, order }) => ({ label: `enbw ${family} ${order}`, request: { kind: 'enbw', family, order } as ScipyRequest })),
+  ...impulseCases.map(({ hpOrder, fcHz }) => ({
+    label: `lsim ${hpOrder} ${fcHz}`,
+    // 6 time constants after the pulse, 0.1 ms steps
+    request: { kind: 'lsim', hpOrder, fcHz, ...PULSE, durationS: PULSE.delayS + PULSE.widthS + 6 / (2 * Math.PI * fcHz), stepS: 1e-4 } as ScipyRequest,
+  })),
 ];
 
 let batch: ScipyBatch;
@@ -124,5 +136,31 @@ describe('the netlist export uses the same normalized poles as SciPy', () => {
     a.forEach((p, i) => {
       expect(Math.hypot(p[0] - b[i][0], p[1] - b[i][1]), `pole ${i}: ${p} vs SciPy ${b[i]}`).toBeLessThan(1e-9);
     });
+  });
+});
+
+describe('low-frequency impulse test (3 mV × 100 ms) vs scipy.signal.lsim of the Butterworth high-pass', () => {
+  it.each(impulseCases)('order $hpOrder at $fcHz Hz: engine pulseTest displacement and slope within 0.5 %', ({ hpOrder, fcHz }) => {
+    const ref = result(`lsim ${hpOrder} ${fcHz}`) as { displacementV: number; slopeVPerS: number };
+    const engine = pulseTest(hpOrder, fcHz, PULSE.amplitudeV, PULSE.widthS);
+    expect(Math.abs(engine.displacementV / ref.displacementV - 1), `displacement: engine ${engine.displacementV} V, SciPy ${ref.displacementV} V`).toBeLessThan(0.005);
+    expect(Math.abs(engine.slopeVPerS / ref.slopeVPerS - 1), `slope: engine ${engine.slopeVPerS} V/s, SciPy ${ref.slopeVPerS} V/s`).toBeLessThan(0.005);
+  });
+
+  it.each(impulseCases)('order $hpOrder at $fcHz Hz: the discrete-time simulateImpulseTest within 1 %', ({ hpOrder, fcHz }) => {
+    const ref = result(`lsim ${hpOrder} ${fcHz}`) as { displacementV: number; slopeVPerS: number };
+    const input = structuredClone(fixturePlanInput);
+    input.highPass = { order: hpOrder, fcHz };
+    const sim = simulateImpulseTest(planSchema.parse(input), { amplitudeV: PULSE.amplitudeV, widthS: PULSE.widthS, windowS: 6 / (2 * Math.PI * fcHz) });
+    expect(Math.abs(sim.displacementV / ref.displacementV - 1), `displacement: simulation ${sim.displacementV} V, SciPy ${ref.displacementV} V`).toBeLessThan(0.01);
+    expect(Math.abs(sim.slopeVPerS / ref.slopeVPerS - 1), `slope: simulation ${sim.slopeVPerS} V/s, SciPy ${ref.slopeVPerS} V/s`).toBeLessThan(0.01);
+  });
+
+  it('SciPy reproduces the worked figures: 0.05 Hz first order ≈ 93 µV and 29 µV/s, 0.5 Hz ≈ 809 µV; second order at 0.05 Hz ≈ 132 µV', () => {
+    const d = (o: number, f: number) => (result(`lsim ${o} ${f}`) as { displacementV: number }).displacementV;
+    expect(d(1, 0.05)).toBeCloseTo(93e-6, 6);
+    expect((result('lsim 1 0.05') as { slopeVPerS: number }).slopeVPerS).toBeCloseTo(29e-6, 6);
+    expect(d(1, 0.5)).toBeCloseTo(809e-6, 5);
+    expect(d(2, 0.05)).toBeCloseTo(132e-6, 6);
   });
 });

@@ -341,7 +341,7 @@ describe('the simulation takes its limits, interference and noise from the repor
     expect(cmPeak / (report.interference.bodyCmV * Math.SQRT2)).toBeCloseTo(1, 3);
   });
 
-  it('the noise alone: the rms at the converter referred to input is near the report\'s RTI rms (white approximation, within 30 %)', () => {
+  it('the noise alone: the rms at the converter referred to input is near the report\'s RTI rms (white approximation, within 10 %)', () => {
     const report = evaluate(fixturePlan);
     const sim = simulateChain(fixturePlan, { durationS: 20, sampleRateHz: 2000, seed: 13, report, include: { signal: false, offset: false, drift: false, mains: false, noise: true } });
     const vref = fixturePlan.supply.referenceV;
@@ -349,7 +349,7 @@ describe('the simulation takes its limits, interference and noise from the repor
     const mean = tail.reduce((a, v) => a + v, 0) / tail.length;
     const rms = Math.sqrt(tail.reduce((a, v) => a + (v - mean) ** 2, 0) / tail.length) / report.gains.totalGain;
     expect(Math.abs(mean - vref)).toBeLessThan(1e-2);
-    expect(Math.abs(rms / report.noise.rtiRmsV - 1), `simulated ${rms} V rms vs report ${report.noise.rtiRmsV} V rms`).toBeLessThan(0.3);
+    expect(Math.abs(rms / report.noise.rtiRmsV - 1), `simulated ${rms} V rms vs report ${report.noise.rtiRmsV} V rms`).toBeLessThan(0.1);
   });
 
   it.each(demoPlans().map((d) => [d.name, d.plan] as const))('%s: nodes the report finds out of range are clipped in the simulation, the others never', (_, plan) => {

@@ -7,7 +7,7 @@ on stdout. Run with /usr/bin/python3 (Debian python3-scipy). Each request has a 
   poles     {family, order}                                      normalized poles (-3 dB at 1 rad/s)
   enbw      {family, order}                                      noise bandwidth / fc by quad()
   lsim      {hpOrder, fcHz, amplitudeV, widthS, delayS, durationS, stepS}  rectangular pulse through
-            the Butterworth high-pass, returns t and y
+            the Butterworth high-pass: largest |y| and |dy/dt| after the pulse, and t, y (thinned)
 """
 import json
 import sys
@@ -60,7 +60,15 @@ def handle(req):
         t = np.arange(0, req["durationS"] + req["stepS"] / 2, req["stepS"])
         u = np.where((t >= req["delayS"]) & (t < req["delayS"] + req["widthS"]), req["amplitudeV"], 0.0)
         _, y, _ = signal.lsim(system, u, t)
-        return {"t": t.tolist(), "y": y.tolist()}
+        # lsim interpolates the input linearly between samples, so the falling edge is a one-step
+        # ramp: measure from the first sample after it.
+        end = req["delayS"] + req["widthS"]
+        after = np.nonzero(t > end + req["stepS"] / 2)[0]
+        ya = y[after]
+        displacement = float(np.max(np.abs(ya)))
+        slope = float(np.max(np.abs(np.diff(ya)))) / req["stepS"]
+        every = max(1, len(t) // 2000)
+        return {"displacementV": displacement, "slopeVPerS": slope, "t": t[::every].tolist(), "y": y[::every].tolist()}
     raise ValueError("unknown request kind " + kind)
 
 
