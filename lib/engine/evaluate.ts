@@ -6,7 +6,6 @@
 import { adcReport } from './adc';
 import { makeCheck } from './checks';
 import { cmrrReport } from './cmrr';
-import { SINE_PP_PER_RMS } from './constants';
 import { pulseTest, recoveryAfterStep } from './impulse';
 import { bodyCommonMode, interferenceReport } from './interference';
 import { commonModeWindow, maxFirstStageGain, stageLevels } from './levels';
@@ -210,7 +209,3 @@ export function evaluate(plan: ChannelPlan | unknown, options: EvaluateOptions =
   return report;
 }
 
-/** Converts an interference figure from V rms to V peak-to-peak (sine). */
-export function rmsToPeakToPeakV(vRms: number): number {
-  return vRms * SINE_PP_PER_RMS;
-}
