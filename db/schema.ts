@@ -475,3 +475,114 @@ export type RevisionStateEventRow = typeof revisionStateEvents.$inferSelect;
 export type ReviewRequestRow = typeof reviewRequests.$inferSelect;
 export type ReviewCommentRow = typeof reviewComments.$inferSelect;
 export type ReviewSignatureRow = typeof reviewSignatures.$inferSelect;
+
+// ───────────────────────────────────────────────────────────────────────────────────────────────
+// Part-library import mappings and bench records.
+// A bench record's file is kept in the database (split into MEDIUMBLOB chunks of at most 4 MiB, so
+// that a 20 MB upload stays below the server's max_allowed_packet), so every app instance reads
+// the same bytes and nothing lives on a local disk. Records are never deleted: a record can only be
+// withdrawn (flag, time, reason), and the custom migration refuses DELETE on both tables.
+// ───────────────────────────────────────────────────────────────────────────────────────────────
+import { double } from 'drizzle-orm/mysql-core';
+
+/** Raw bytes in a MEDIUMBLOB (up to 16 MiB per value), as a Buffer. */
+const mediumBlob = (name: string) =>
+  customType<{ data: Buffer; driverData: Buffer }>({
+    dataType: () => 'mediumblob',
+    toDriver: (value) => value,
+    fromDriver: (value) => (Buffer.isBuffer(value) ? value : Buffer.from(value as Uint8Array)),
+  })(name);
+
+/**
+ * The CSV column → part field mapping last used for an import, per workspace and part kind, so the
+ * next import of a file with the same headers starts from it.
+ */
+export const partImportMappings = mysqlTable(
+  'part_import_mappings',
+  {
+    id: idColumn(),
+    workspaceId: idRef('workspace_id')
+      .notNull()
+      .references(() => workspaces.id),
+    kind: mysqlEnum('kind', partKinds).notNull(),
+    /** Column header → part field (null: the column is ignored). */
+    mapping: jsonDocument<Record<string, string | null>>('mapping').notNull(),
+    updatedByUserId: idRef('updated_by_user_id')
+      .notNull()
+      .references(() => users.id),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [uniqueIndex('part_import_mappings_workspace_kind_unique').on(t.workspaceId, t.kind)],
+);
+
+/** Formats a bench record can have (told apart by content). */
+export const benchRecordFormatValues = ['edf', 'csv'] as const;
+/** Units a CSV bench record may be written in (EDF files carry their own). */
+export const benchRecordUnitValues = ['V', 'mV', 'uV'] as const;
+/** Whether the recorded values are already referred to the input, or still carry a gain to divide by. */
+export const benchGainModeValues = ['referred-to-input', 'gain-to-apply'] as const;
+
+/** A recording from a prototype, attached to a revision, with the settings it was analysed with. */
+export const benchRecords = mysqlTable(
+  'bench_records',
+  {
+    id: idColumn(),
+    workspaceId: idRef('workspace_id')
+      .notNull()
+      .references(() => workspaces.id),
+    planId: idRef('plan_id')
+      .notNull()
+      .references(() => channelPlans.id),
+    revisionId: idRef('revision_id')
+      .notNull()
+      .references(() => planRevisions.id),
+    fileName: varchar('file_name', { length: 255 }).notNull(),
+    format: mysqlEnum('format', benchRecordFormatValues).notNull(),
+    byteLength: int('byte_length').notNull(),
+    /** SHA-256 of the file, 64 lowercase hex digits. */
+    sha256: char('sha256', { length: 64 }).notNull(),
+    chunkCount: int('chunk_count').notNull(),
+    /** Label of the analysed signal (EDF signal label or CSV column header). */
+    channel: varchar('channel', { length: 120 }).notNull(),
+    /** Unit of the CSV values; null for EDF (the file states its physical dimension). */
+    unit: mysqlEnum('unit', benchRecordUnitValues),
+    /** CSV without a time column: the sample rate given, Hz. */
+    sampleRateGivenHz: double('sample_rate_given_hz'),
+    gainMode: mysqlEnum('gain_mode', benchGainModeValues).notNull(),
+    /** Gain from the channel input to the recorded values, V/V (1 when referred to input). */
+    gainVPerV: double('gain_v_per_v').notNull(),
+    note: varchar('note', { length: 500 }).notNull().default(''),
+    /** The measurements (no spectrum) and the comparison with the revision's prediction, at upload. */
+    analysis: jsonDocument<Record<string, unknown>>('analysis').notNull(),
+    comparison: jsonDocument<unknown[]>('comparison').notNull(),
+    withdrawnAt: datetime('withdrawn_at', { mode: 'date', fsp: 3 }),
+    withdrawnByUserId: idRef('withdrawn_by_user_id').references(() => users.id),
+    withdrawnReason: varchar('withdrawn_reason', { length: 500 }),
+    createdByUserId: idRef('created_by_user_id')
+      .notNull()
+      .references(() => users.id),
+    createdAt: createdAt(),
+  },
+  (t) => [
+    index('bench_records_revision_idx').on(t.revisionId),
+    index('bench_records_workspace_plan_idx').on(t.workspaceId, t.planId),
+  ],
+);
+
+/** The bytes of a bench record's file, in order. */
+export const benchRecordChunks = mysqlTable(
+  'bench_record_chunks',
+  {
+    id: idColumn(),
+    recordId: idRef('record_id')
+      .notNull()
+      .references(() => benchRecords.id),
+    sequence: int('sequence').notNull(),
+    bytes: mediumBlob('bytes').notNull(),
+  },
+  (t) => [uniqueIndex('bench_record_chunks_record_sequence_unique').on(t.recordId, t.sequence)],
+);
+
+export type PartImportMappingRow = typeof partImportMappings.$inferSelect;
+export type BenchRecordRow = typeof benchRecords.$inferSelect;
