@@ -76,6 +76,8 @@ export interface NetlistOptions {
    * (straight onto the instrumentation-stage inputs: the stage's own CMRR). Default `body`.
    */
   commonModeAt?: 'body' | 'amplifier';
+  /** Leave the electrodes and input protection out: the sources drive the amplifier inputs directly (default false). */
+  bypassInput?: boolean;
   /** Model each op-amp's own finite CMRR (default true). */
   opAmpCmrr?: boolean;
   /**
@@ -392,7 +394,7 @@ export function planToNetlist(plan: ChannelPlan, options: NetlistOptions): strin
   const inaModel = (sign: -1 | 1) => (!cmrrOn ? 'opamp_ina' : sign === 1 ? 'opamp_ina' : 'opamp_ina_neg');
   const needNegative = cmrrOn && [signs.a1, signs.a2, signs.a3].includes(-1);
   const commonModeAt = options.commonModeAt ?? 'body';
-  const directToAmplifier = options.analysis === 'cmrr' && commonModeAt === 'amplifier';
+  const directToAmplifier = (options.bypassInput ?? false) || (options.analysis === 'cmrr' && commonModeAt === 'amplifier');
   const L: string[] = [];
 
   L.push(`* Channelsmith channel plan "${plan.name.replace(/[\r\n]+/g, ' ')}" (${options.analysis} analysis)`);
@@ -432,7 +434,7 @@ export function planToNetlist(plan: ChannelPlan, options: NetlistOptions): strin
   L.push('');
 
   if (directToAmplifier) {
-    L.push('* ---- electrodes and input protection bypassed: the common-mode source drives the amplifier inputs');
+    L.push('* ---- electrodes and input protection left out: the sources drive the amplifier inputs');
     L.push('Vlink_p src_p in_p DC 0');
     L.push('Vlink_n src_n in_n DC 0');
   } else {

@@ -14,13 +14,15 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { differenceAmpCmrrDb, stageCmrrDb } from '@/lib/engine/cmrr';
 import { evaluate } from '@/lib/engine/evaluate';
+import { pulseTest } from '@/lib/engine/impulse';
 import { resolvePlan } from '@/lib/engine/model';
 import type { ChannelPlan } from '@/lib/engine/plan';
 import { profileFor } from '@/lib/engine/profiles';
 import type { ChannelReport } from '@/lib/engine/report';
-import type { InstrumentationResistors, NetlistOptions } from '@/lib/engine/spice-netlist';
+import { resolveInstrumentation, type InstrumentationResistors, type NetlistOptions } from '@/lib/engine/spice-netlist';
 import { integrateDensityVrms, magnitude, magnitudeDbAt, ngspiceVersion, runNgspiceJobs, type AcSweep, type NgspiceJobResult } from '@/scripts/ngspice';
 import { demoPlans, mismatchedResistors, RANDOM_PLAN_COUNT, referencePlans } from '@/unit/helpers/ngspice-cases';
+import { fixturePlan } from '@/unit/helpers/ngspice-plans';
 
 const HALF_POWER_DB = -10 * Math.log10(2);
 const signCombos = [
@@ -52,6 +54,13 @@ const cases: Case[] = referencePlans().map(({ name, plan }, index) => ({
 }));
 let version = '';
 
+/** Transient impulse tests: the fixture with each high-pass, sources straight onto the amplifier (the engine's assumption) and through the electrodes. */
+const impulseCases = ([1, 2] as const).flatMap((order) =>
+  [0.05, 0.5].flatMap((fcHz) =>
+    [true, false].map((bypassInput) => ({ order, fcHz, bypassInput, plan: { ...fixturePlan, highPass: { order, fcHz } } as ChannelPlan, tran: undefined as NgspiceJobResult['tran'] })),
+  ),
+);
+
 const dbAtFirst = (sweep: AcSweep, node: 'ina') => 20 * Math.log10(magnitude(sweep.re[node][0], sweep.im[node][0]));
 
 beforeAll(() => {
@@ -74,6 +83,10 @@ beforeAll(() => {
     for (const signs of signCombos) {
       add(c.plan, { analysis: 'cmrr', commonModeAt: 'amplifier', resistors: c.resistors, opAmpCmrrSigns: signs, ...lowCmrrSweep }, (r) => c.cmAcSigns.push(r.cmrr!));
     }
+  }
+  for (const ic of impulseCases) {
+    // 3 mV × 100 ms from 0.1 s, then 0.4 s (the largest displacement and slope follow the pulse at once for these corners), 0.1 ms steps
+    add(ic.plan, { analysis: 'tran', bypassInput: ic.bypassInput, tran: { stepS: 1e-4, stopS: 0.6, amplitudeV: 3e-3, startS: 0.1, widthS: 0.1 } }, (r) => (ic.tran = r.tran));
   }
   const t0 = Date.now();
   const results = runNgspiceJobs(jobs);
@@ -169,5 +182,37 @@ describe('noise referred to input vs ngspice .noise', () => {
     const s = c.noise!.noise!;
     const mine = integrateDensityVrms(s.frequencyHz, s.outputVPerRtHz, s.frequencyHz[0], s.frequencyHz[s.frequencyHz.length - 1]);
     expect(Math.abs(mine / s.outputTotalVrms - 1)).toBeLessThan(0.002);
+  });
+});
+
+describe('low-frequency impulse test vs ngspice .tran (3 mV × 100 ms)', () => {
+  /** Largest |displacement| and |slope| at the high-pass output after the pulse, referred to input (÷ G1·Gd). */
+  const measure = (tran: NonNullable<NgspiceJobResult['tran']>, plan: ChannelPlan, endS: number) => {
+    const g = resolveInstrumentation(plan);
+    const k = 1 / (g.g1 * g.gd);
+    let displacementV = 0;
+    let slopeVPerS = 0;
+    for (let i = 1; i < tran.timeS.length; i += 1) {
+      if (tran.timeS[i - 1] <= endS + 1e-6) continue;
+      displacementV = Math.max(displacementV, Math.abs(tran.hp[i] - plan.supply.referenceV) * k);
+      slopeVPerS = Math.max(slopeVPerS, (Math.abs(tran.hp[i] - tran.hp[i - 1]) * k) / (tran.timeS[i] - tran.timeS[i - 1]));
+    }
+    return { displacementV, slopeVPerS };
+  };
+
+  it.each(impulseCases.filter((c) => c.bypassInput))('order $order at $fcHz Hz (source on the amplifier inputs): pulseTest displacement and slope within 1 %', (ic) => {
+    const spice = measure(ic.tran!, ic.plan, 0.2);
+    const engine = pulseTest(ic.order, ic.fcHz, 3e-3, 0.1);
+    expect(Math.abs(engine.displacementV / spice.displacementV - 1), `displacement: engine ${engine.displacementV} V, ngspice ${spice.displacementV} V`).toBeLessThan(0.01);
+    expect(Math.abs(engine.slopeVPerS / spice.slopeVPerS - 1), `slope: engine ${engine.slopeVPerS} V/s, ngspice ${spice.slopeVPerS} V/s`).toBeLessThan(0.01);
+  });
+
+  it('through the fixture\'s electrodes (500 kΩ ∥ 20 nF) the displacement stays within 5 % of the high-pass-only figure (printed)', () => {
+    for (const ic of impulseCases.filter((c) => !c.bypassInput)) {
+      const spice = measure(ic.tran!, ic.plan, 0.2);
+      const engine = pulseTest(ic.order, ic.fcHz, 3e-3, 0.1);
+      console.info(`impulse test through the electrodes, order ${ic.order} at ${ic.fcHz} Hz: ngspice ${(spice.displacementV * 1e6).toFixed(1)} µV, ${(spice.slopeVPerS * 1e6).toFixed(1)} µV/s; engine (high-pass alone) ${(engine.displacementV * 1e6).toFixed(1)} µV, ${(engine.slopeVPerS * 1e6).toFixed(1)} µV/s`);
+      expect(Math.abs(engine.displacementV / spice.displacementV - 1)).toBeLessThan(0.05);
+    }
   });
 });
