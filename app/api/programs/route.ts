@@ -1,7 +1,7 @@
 import { NextResponse } from 'next/server';
 import { createProgram, getProgramById, listPrograms } from '@/db/queries/programs';
 import { requireSession } from '@/features/auth/guard';
-import { parseJsonBody } from '@/features/programs/request';
+import { parseJsonBody } from '@/app/api/programs/_shared/request';
 import { toProgramDto } from '@/features/programs/types';
 import { canEditPlans } from '@/lib/auth/permissions';
 import { AppError, errorResponse } from '@/features/auth/errors';

@@ -2,7 +2,7 @@ import { NextResponse } from 'next/server';
 import { getProgramById, updateProgram } from '@/db/queries/programs';
 import { AppError, errorResponse } from '@/features/auth/errors';
 import { requireSession } from '@/features/auth/guard';
-import { parseIdParam, parseJsonBody } from '@/features/programs/request';
+import { parseIdParam, parseJsonBody } from '@/app/api/programs/_shared/request';
 import { toProgramDto } from '@/features/programs/types';
 import { canEditPlans } from '@/lib/auth/permissions';
 import { updateProgramBodySchema } from '@/app/api/programs/[programId]/schema';
