@@ -76,6 +76,8 @@ export interface NetlistOptions {
    * (straight onto the instrumentation-stage inputs: the stage's own CMRR). Default `body`.
    */
   commonModeAt?: 'body' | 'amplifier';
+  /** Include the protection filter's differential capacitor (default true). */
+  cDiff?: boolean;
   /** Leave the electrodes and input protection out: the sources drive the amplifier inputs directly (default false). */
   bypassInput?: boolean;
   /** Model each op-amp's own finite CMRR (default true). */
@@ -467,7 +469,7 @@ export function planToNetlist(plan: ChannelPlan, options: NetlistOptions): strin
       else L.push(`Vprot_${side} e3_${side} in_${side} DC 0   ; no series protection resistor`);
     }
     if (pr.filter.enabled) {
-      if (pr.filter.cDiffF > 0) L.push(`Cdiff in_p in_n ${spiceNumber(pr.filter.cDiffF)}   ; differential filter capacitor`);
+      if (pr.filter.cDiffF > 0 && (options.cDiff ?? true)) L.push(`Cdiff in_p in_n ${spiceNumber(pr.filter.cDiffF)}   ; differential filter capacitor`);
       if (pr.filter.cCmF > 0) {
         L.push(`Ccm_p in_p 0 ${spiceNumber(pr.filter.cCmF * (1 + pr.filter.cCmMismatch))}   ; common-mode capacitor, positive input (+${pr.filter.cCmMismatch * 100} % mismatch)`);
         L.push(`Ccm_n in_n 0 ${spiceNumber(pr.filter.cCmF)}   ; common-mode capacitor, negative input`);

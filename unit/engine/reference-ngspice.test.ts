@@ -43,6 +43,9 @@ interface Case {
   cmAc?: AcSweep;
   diffAcWithOpAmps?: AcSweep;
   cmAcSigns: AcSweep[];
+  /** Common mode on the body at mains: with and without the differential filter capacitor. */
+  bodyCm?: AcSweep;
+  bodyCmNoCdiff?: AcSweep;
 }
 
 const cases: Case[] = referencePlans().map(({ name, plan }, index) => ({
@@ -80,6 +83,9 @@ beforeAll(() => {
     add(c.plan, { analysis: 'ac', resistors: c.resistors, opAmpCmrr: false, ...lowCmrrSweep }, (r) => (c.diffAc = r.ac));
     add(c.plan, { analysis: 'cmrr', commonModeAt: 'amplifier', resistors: c.resistors, opAmpCmrr: false, ...lowCmrrSweep }, (r) => (c.cmAc = r.cmrr));
     add(c.plan, { analysis: 'ac', resistors: c.resistors, ...lowCmrrSweep }, (r) => (c.diffAcWithOpAmps = r.ac));
+    const mainsSweep = { startHz: c.plan.mainsHz / 10, stopHz: c.plan.mainsHz * 10, pointsPerDecade: 10 };
+    add(c.plan, { analysis: 'cmrr', opAmpCmrr: false, ...mainsSweep }, (r) => (c.bodyCm = r.cmrr));
+    add(c.plan, { analysis: 'cmrr', opAmpCmrr: false, cDiff: false, ...mainsSweep }, (r) => (c.bodyCmNoCdiff = r.cmrr));
     for (const signs of signCombos) {
       add(c.plan, { analysis: 'cmrr', commonModeAt: 'amplifier', resistors: c.resistors, opAmpCmrrSigns: signs, ...lowCmrrSweep }, (r) => c.cmAcSigns.push(r.cmrr!));
     }
@@ -163,6 +169,32 @@ describe('CMRR with deliberately mismatched resistors vs ngspice (common-mode an
     const t = 0.01;
     const db = differenceAmpCmrrDb({ r1Ohm: 1e3 * (1 + t), r2Ohm: 100e3 * (1 - t), r3Ohm: 1e3 * (1 - t), r4Ohm: 100e3 * (1 + t) });
     expect(Math.abs(db - 20 * Math.log10(101 / 0.04))).toBeLessThan(0.1);
+  });
+});
+
+describe('mains: conversion of body common mode by lead imbalance vs ngspice (1 V on the body, ideal-CMRR amplifier)', () => {
+  /** |V(in+) − V(in−)| per volt of common mode at the mains frequency (on the sweep grid). */
+  const conversionAt = (sweep: AcSweep, fHz: number) => {
+    const i = sweep.frequencyHz.findIndex((f) => Math.abs(f / fHz - 1) < 1e-6);
+    expect(i, `mains ${fHz} Hz on the sweep grid`).toBeGreaterThanOrEqual(0);
+    return magnitude(sweep.re.in[i], sweep.im.in[i]);
+  };
+  const engineConversion = (c: Case) => c.report.interference.terms[0].rtiPpV / (c.report.interference.bodyCmV * 2 * Math.SQRT2);
+
+  it.each(cases.map((c) => [c.name, c] as const))('%s: the engine\'s imbalance term within 0.1 dB of ngspice without Cdiff (the engine\'s model)', (_, c) => {
+    const spice = conversionAt(c.bodyCmNoCdiff!, c.plan.mainsHz);
+    const engine = engineConversion(c);
+    if (engine === 0) {
+      expect(spice, 'no imbalance, no mismatch: ngspice must show no conversion either').toBeLessThan(1e-12);
+      return;
+    }
+    expect(Math.abs(20 * Math.log10(engine / spice)), `engine ${engine}, ngspice ${spice} (per volt of common mode)`).toBeLessThan(0.1);
+  });
+
+  it.each(cases.map((c) => [c.name, c] as const))('%s: with Cdiff in the circuit the engine never underestimates the conversion', (_, c) => {
+    const spice = conversionAt(c.bodyCm!, c.plan.mainsHz);
+    const engine = engineConversion(c);
+    expect(engine, `engine ${engine}, ngspice with Cdiff ${spice}`).toBeGreaterThanOrEqual(spice * (1 - 1e-3));
   });
 });
 
