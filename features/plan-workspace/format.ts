@@ -93,7 +93,8 @@ export function formatEng(valueSi: number | null | undefined, unit: string, opti
  */
 export function formatPercent(ratio: number | null | undefined, digits = 3): string {
   if (ratio === null || ratio === undefined || !Number.isFinite(ratio)) return missingValueText;
-  return `${toSignificant(ratio * 100, digits)} %`;
+  const text = toSignificant(Math.abs(ratio) * 100, digits);
+  return `${ratio < 0 && text !== '0' ? '−' : ''}${text} %`;
 }
 
 /**

@@ -158,3 +158,36 @@ export function findCheck(report: Pick<ChannelReport, 'checks'>, words: string[]
   }
   return undefined;
 }
+
+/** The unit column of the checks table: fractions are shown as per cent. */
+export function checkUnitLabel(unit: string): string {
+  if (unit === 'fraction of range') return '% of range';
+  if (unit === 'fraction' || unit === 'ratio') return '%';
+  return unit;
+}
+
+/**
+ * The y-range of a waveform panel: the data with 8 % padding, widened to a node limit only when
+ * the limit lies within three data spans (so clipping shows against its limit, while a small
+ * signal far from the rails is not flattened by them).
+ * @param values the trace, V
+ * @param limits the node's allowed range, V
+ * @param includeLimits always show both limits (for a node that clips)
+ * @returns [low, high], V
+ */
+export function waveformRangeV(values: readonly number[], limits: { minV: number; maxV: number }, includeLimits = false): [number, number] {
+  let lo = Number.POSITIVE_INFINITY;
+  let hi = Number.NEGATIVE_INFINITY;
+  for (const v of values) {
+    if (!Number.isFinite(v)) continue;
+    if (v < lo) lo = v;
+    if (v > hi) hi = v;
+  }
+  if (lo > hi) return [limits.minV, limits.maxV];
+  // A flat trace still gets a readable span: 0.2 % of the node's allowed range.
+  const span = Math.max(hi - lo, 1e-9, 0.002 * Math.abs(limits.maxV - limits.minV));
+  if (includeLimits || limits.minV >= lo - 3 * span) lo = Math.min(lo, limits.minV);
+  if (includeLimits || limits.maxV <= hi + 3 * span) hi = Math.max(hi, limits.maxV);
+  const pad = 0.08 * Math.max(hi - lo, span);
+  return [lo - pad, hi + pad];
+}

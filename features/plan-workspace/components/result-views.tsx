@@ -16,6 +16,7 @@ import { ResponseView } from '@/features/plan-workspace/components/views/respons
 import { WaveformsView } from '@/features/plan-workspace/components/views/waveforms-view';
 import { ToleranceView } from '@/features/plan-workspace/components/views/tolerance-view';
 import { ChecksView } from '@/features/plan-workspace/components/views/checks-view';
+import { useToleranceRun } from '@/features/plan-workspace/hooks/use-tolerance-run';
 
 const tabs = ['Levels', 'Noise', 'Mains', 'Response', 'Waveforms', 'Tolerance', 'Checks'] as const;
 type Tab = (typeof tabs)[number];
@@ -33,6 +34,8 @@ export function ResultViews({ report, plan, canEdit, onOpenStage, onApplySuggest
   const [active, setActive] = useState<Tab>('Levels');
   const refs = useRef<Record<string, HTMLButtonElement | null>>({});
   const counts = verdictCounts(report.checks);
+  // Held here (not in the view) so a run survives switching tabs.
+  const tolerance = useToleranceRun();
 
   const onKeyDown = (event: KeyboardEvent<HTMLButtonElement>) => {
     const i = tabs.indexOf(active);
@@ -88,7 +91,7 @@ export function ResultViews({ report, plan, canEdit, onOpenStage, onApplySuggest
         {active === 'Mains' && <MainsView report={report} mainsHz={plan?.mainsHz} />}
         {active === 'Response' && <ResponseView report={report} plan={plan} />}
         {active === 'Waveforms' && <WaveformsView plan={plan} />}
-        {active === 'Tolerance' && <ToleranceView plan={plan} />}
+        {active === 'Tolerance' && <ToleranceView plan={plan} state={tolerance.state} onStart={tolerance.start} onCancel={tolerance.cancel} />}
         {active === 'Checks' && <ChecksView report={report} canEdit={canEdit} onOpenStage={onOpenStage} onApplySuggestion={onApplySuggestion} />}
       </div>
     </section>

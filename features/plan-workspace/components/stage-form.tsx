@@ -224,6 +224,7 @@ function FieldInput({
           className={inputClass}
           aria-invalid={message ? true : undefined}
           aria-describedby={describedBy}
+          placeholder={derivedPlaceholder(field, plan)}
           {...register(key)}
         />
       )}
@@ -239,6 +240,18 @@ function FieldInput({
       )}
     </div>
   );
+}
+
+/** The derived value shown in the empty one of Rg / first-stage gain. */
+function derivedPlaceholder(field: FieldDef, plan: PlanDraft): string | undefined {
+  const dotted = field.path.join('.');
+  const rOhm = getAt(plan, ['instrumentation', 'rOhm']);
+  const rgOhm = getAt(plan, ['instrumentation', 'rgOhm']);
+  const gain = getAt(plan, ['instrumentation', 'targetGain']);
+  if (typeof rOhm !== 'number') return undefined;
+  if (dotted === 'instrumentation.targetGain' && typeof rgOhm === 'number') return `${formatEng(firstStageGain(rOhm, rgOhm), '', { digits: 4 })} (from Rg)`;
+  if (dotted === 'instrumentation.rgOhm' && typeof gain === 'number') return `${formatEng(gainResistorFor(rOhm, gain), 'Ω', { digits: 4 })} (from G1)`;
+  return undefined;
 }
 
 /** "G1 = 11 from Rg" under the first-stage gain when Rg drives it, and the reverse. */

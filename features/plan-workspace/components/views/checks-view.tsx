@@ -6,7 +6,7 @@
  */
 import type { ChannelReport } from '@/lib/engine/report';
 import { stages, type StageId } from '@/features/plan-workspace/stage-fields';
-import { formatCheckValue, workspaceStageId } from '@/features/plan-workspace/report-view';
+import { checkUnitLabel, formatCheckValue, workspaceStageId } from '@/features/plan-workspace/report-view';
 import { formatPercent } from '@/features/plan-workspace/format';
 import { VerdictBadge } from '@/features/plan-workspace/components/verdict-badge';
 
@@ -47,16 +47,19 @@ export function ChecksView({ report, canEdit, onOpenStage, onApplySuggestion }: 
                   <th scope="row" className="px-2 py-2 text-left font-medium">
                     {c.title}
                   </th>
-                  <td className="px-2 py-2 text-right tabular-nums">{formatCheckValue(c.value, c.unit)}</td>
-                  <td className="px-2 py-2 text-right tabular-nums">{limitText}</td>
-                  <td className="px-2 py-2 text-ink-soft">{c.unit}</td>
-                  <td className={`px-2 py-2 text-right tabular-nums ${c.margin < 0 ? 'text-verdict-fails' : ''}`}>{formatPercent(c.margin)}</td>
+                  <td className="whitespace-nowrap px-2 py-2 text-right tabular-nums">{formatCheckValue(c.value, c.unit)}</td>
+                  <td className="whitespace-nowrap px-2 py-2 text-right tabular-nums">{limitText}</td>
+                  <td className="whitespace-nowrap px-2 py-2 text-ink-soft">{checkUnitLabel(c.unit)}</td>
+                  <td className={`whitespace-nowrap px-2 py-2 text-right tabular-nums ${c.margin < 0 ? 'text-verdict-fails' : ''}`}>{formatPercent(c.margin)}</td>
                   <td className="px-2 py-2">
                     <VerdictBadge verdict={c.verdict} />
                   </td>
                   <td className="max-w-[260px] px-2 py-2 text-xs text-ink-soft">
                     {c.source}
-                    {!c.sourceVerified && <span className="ml-1 rounded bg-verdict-marginal/10 px-1 font-semibold text-verdict-marginal">from memory</span>}
+                    {!c.sourceVerified && !/common practice/i.test(c.source) && (
+                      <span className="ml-1 rounded bg-verdict-marginal/10 px-1 font-semibold text-verdict-marginal">from memory</span>
+                    )}
+                    {!c.sourceVerified && /common practice/i.test(c.source) && <span className="ml-1 font-semibold">(not from a standard)</span>}
                   </td>
                   <td className="px-2 py-2">
                     {c.verdict !== 'meets' && (

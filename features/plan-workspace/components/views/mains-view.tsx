@@ -21,8 +21,9 @@ export function MainsView({ report, mainsHz }: { report: ChannelReport; mainsHz?
   const termsData: PlotTrace[] = [
     {
       type: 'bar',
-      x: termNames,
-      y: termValues,
+      orientation: 'h',
+      y: termNames,
+      x: termValues,
       marker: { color: termNames.map((n, i) => (overLimit[i] ? plotColors.fails : n === 'total' ? plotColors.ink : plotColors.series[i % plotColors.series.length])) },
       text: termValues.map((v) => formatEng(v, 'V')),
       textposition: 'outside',
@@ -77,13 +78,14 @@ export function MainsView({ report, mainsHz }: { report: ChannelReport; mainsHz?
           title="Mains interference referred to input, by term"
           data={termsData}
           layout={{
-            xaxis: { title: { text: 'Term' }, automargin: true },
-            yaxis: { title: { text: 'Interference RTI (V peak-to-peak)' }, type: useLog ? 'log' : 'linear', exponentformat: 'SI', gridcolor: '#e5e7eb' },
+            yaxis: { title: { text: 'Term' }, automargin: true, autorange: 'reversed' },
+            xaxis: { title: { text: 'Interference RTI (V peak-to-peak)' }, type: useLog ? 'log' : 'linear', exponentformat: 'SI', gridcolor: '#e5e7eb' },
             showlegend: false,
-            shapes: limit ? [{ type: 'line', xref: 'paper', x0: 0, x1: 1, y0: limit.limit, y1: limit.limit, line: { color: plotColors.fails, width: 2, dash: 'dash' } }] : [],
+            shapes: limit ? [{ type: 'line', yref: 'paper', y0: 0, y1: 1, x0: limit.limit, x1: limit.limit, line: { color: plotColors.fails, width: 2, dash: 'dash' } }] : [],
             annotations: limit
-              ? [{ xref: 'paper', x: 1, xanchor: 'right', y: useLog ? Math.log10(limit.limit) : limit.limit, yanchor: 'bottom', text: `limit ${formatEng(limit.limit, 'V')} p-p`, showarrow: false, font: { color: plotColors.fails, size: 11 } }]
+              ? [{ yref: 'paper', y: 1, yanchor: 'bottom', x: useLog ? Math.log10(limit.limit) : limit.limit, text: `limit ${formatEng(limit.limit, 'V')} p-p`, showarrow: false, font: { color: plotColors.fails, size: 11 } }]
               : [],
+            margin: { l: 20 },
           }}
         />
         {cmrTest ? (
@@ -92,7 +94,7 @@ export function MainsView({ report, mainsHz }: { report: ChannelReport; mainsHz?
             data={cmrData}
             layout={{
               xaxis: { title: { text: 'Common-mode test' } },
-              yaxis: { title: { text: 'Residual RTI (V peak-to-peak)' }, exponentformat: 'SI', gridcolor: '#e5e7eb', rangemode: 'tozero' },
+              yaxis: { title: { text: 'Residual RTI (V peak-to-peak, log scale)' }, type: 'log', exponentformat: 'SI', gridcolor: '#e5e7eb' },
               showlegend: false,
             }}
           />

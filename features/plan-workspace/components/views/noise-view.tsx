@@ -103,7 +103,7 @@ export function NoiseView({ report }: { report: ChannelReport }) {
           yaxis: { title: { text: 'Noise RTI (V rms)' }, gridcolor: '#e5e7eb', exponentformat: 'SI', rangemode: 'tozero' },
           showlegend: false,
           shapes: hLines.map((l) => ({ type: 'line', xref: 'paper', x0: 0, x1: 1, y0: l.y, y1: l.y, line: { color: l.color, width: 2, dash: 'dash' } })),
-          annotations: hLines.map((l) => ({ xref: 'paper', x: 1, xanchor: 'right', y: l.y, yanchor: 'bottom', text: l.text, showarrow: false, font: { size: 11, color: l.color } })),
+          annotations: hLines.map((l, i) => ({ xref: 'paper', x: i === 1 ? 0.5 : 1, xanchor: 'right', y: l.y, yanchor: 'bottom', text: l.text, showarrow: false, font: { size: 11, color: l.color } })),
         }}
       />
       <div className="overflow-x-auto rounded border border-slate-200 bg-white">

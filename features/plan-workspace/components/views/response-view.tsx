@@ -7,6 +7,7 @@ import type { ChannelPlan } from '@/lib/engine/plan';
 import type { ChannelReport } from '@/lib/engine/report';
 import { formatDb, formatEng } from '@/features/plan-workspace/format';
 import { checkById } from '@/features/plan-workspace/report-view';
+import { profileFor } from '@/lib/engine/profiles';
 import { PlotFigure, plotColors, type PlotTrace } from '@/features/plan-workspace/components/plot-figure';
 import { VerdictBadge } from '@/features/plan-workspace/components/verdict-badge';
 
@@ -23,8 +24,10 @@ const stageNames: Record<string, string> = {
 export function ResponseView({ report, plan }: { report: ChannelReport; plan: ChannelPlan | null }) {
   const resp = report.response;
   const f = resp.points.map((p) => p.fHz);
-  const bandLow = report.noise.bandLowHz;
-  const bandHigh = report.noise.bandHighHz;
+  // The profile's band of interest (flatness, alias and corners refer to it).
+  const band = profileBand(plan) ?? { lowHz: report.noise.bandLowHz, highHz: report.noise.bandHighHz };
+  const bandLow = band.lowHz;
+  const bandHigh = band.highHz;
   const fsHz = plan?.adc.sampleRateHz;
   const aliasHz = fsHz !== undefined ? fsHz - bandHigh : undefined;
   const nyquistHz = fsHz !== undefined ? fsHz / 2 : undefined;
@@ -51,8 +54,8 @@ export function ResponseView({ report, plan }: { report: ChannelReport; plan: Ch
   const bandShape = { type: 'rect', xref: 'x', yref: 'paper', x0: bandLow, x1: bandHigh, y0: 0, y1: 1, fillcolor: 'rgba(29,122,70,0.08)', line: { width: 0 }, layer: 'below' };
 
   const marks = [
-    ...(aliasHz !== undefined && aliasHz > 0 ? [{ x: aliasHz, text: 'fs − f_high', color: plotColors.fails }] : []),
-    ...(nyquistHz !== undefined ? [{ x: nyquistHz, text: 'fs/2', color: plotColors.copper }] : []),
+    ...(aliasHz !== undefined && aliasHz > 0 ? [{ x: aliasHz, text: `fs − f_high = ${formatEng(aliasHz, 'Hz')}`, color: plotColors.fails }] : []),
+    ...(nyquistHz !== undefined ? [{ x: nyquistHz, text: `fs/2 = ${formatEng(nyquistHz, 'Hz')}`, color: plotColors.copper }] : []),
   ];
 
   const magLayout = {
@@ -60,8 +63,8 @@ export function ResponseView({ report, plan }: { report: ChannelReport; plan: Ch
     yaxis: { title: { text: 'Gain (dB)' }, gridcolor: '#e5e7eb' },
     shapes: [bandShape, ...marks.map((m) => vline(m.x, m.color)), ...(lowCheck ? [vline(lowCheck.limit, plotColors.meets, 'dot')] : []), ...(highCheck ? [vline(highCheck.limit, plotColors.meets, 'dot')] : [])],
     annotations: [
-      mark(Math.sqrt(bandLow * bandHigh), 'pass band of the profile', plotColors.meets, 0.02),
-      ...marks.map((m, i) => mark(m.x, m.text, m.color, i % 2 === 0 ? 1 : 0.94)),
+      mark(Math.sqrt(bandLow * bandHigh), `pass band of the profile ${formatEng(bandLow, 'Hz')} … ${formatEng(bandHigh, 'Hz')}`, plotColors.meets, 0.02),
+      ...marks.map((m, i) => ({ ...mark(m.x, m.text, m.color, i % 2 === 0 ? 1 : 0.93), xanchor: i % 2 === 0 ? 'right' : 'left' })),
     ],
     legend: { orientation: 'h', y: -0.25 },
     margin: { b: 100 },
@@ -105,6 +108,15 @@ export function ResponseView({ report, plan }: { report: ChannelReport; plan: Ch
       </section>
     </div>
   );
+}
+
+function profileBand(plan: ChannelPlan | null): { lowHz: number; highHz: number } | null {
+  if (!plan) return null;
+  try {
+    return profileFor(plan.profileId, plan.customProfile).band;
+  } catch {
+    return null;
+  }
 }
 
 function Stat({ term, value, badge }: { term: string; value: string; badge?: 'meets' | 'marginal' | 'fails' }) {

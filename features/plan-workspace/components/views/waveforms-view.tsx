@@ -7,6 +7,7 @@ import { useDeferredValue, useMemo, useState } from 'react';
 import type { ChannelPlan } from '@/lib/engine/plan';
 import { simulateImpulseTest, simulateWaveforms, type WaveformResult, type ImpulseTestSimulation } from '@/lib/engine/waveforms';
 import { formatEng, formatPercent } from '@/features/plan-workspace/format';
+import { waveformRangeV } from '@/features/plan-workspace/report-view';
 import { PlotFigure, plotColors, type PlotTrace, type PlotLayout } from '@/features/plan-workspace/components/plot-figure';
 
 const durations = [2, 5, 10] as const;
@@ -65,6 +66,7 @@ export function WaveformsView({ plan }: { plan: ChannelPlan | null }) {
     layout[`yaxis${axis}`] = {
       domain: [Math.max(0, top - rowH), top],
       title: { text: 'V', standoff: 4 },
+      range: waveformRangeV(t.values, t.limits, isClipped),
       exponentformat: 'SI',
       gridcolor: '#eef0f3',
       zeroline: false,
@@ -90,7 +92,7 @@ export function WaveformsView({ plan }: { plan: ChannelPlan | null }) {
       xanchor: 'left',
       yanchor: 'bottom',
       showarrow: false,
-      text: `${t.label}${isClipped ? ` — clipped ${formatPercent(t.clippedFraction, 2)} of the time` : ''}`,
+      text: `${t.label}${isClipped ? ` — clipped ${formatPercent(t.clippedFraction, 2)} of the time` : ''} (limits ${formatEng(t.limits.minV, 'V')} … ${formatEng(t.limits.maxV, 'V')})`,
       font: { size: 11, color: isClipped ? plotColors.fails : plotColors.inkSoft },
     });
   });
