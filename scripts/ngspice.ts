@@ -139,6 +139,26 @@ export function runNgspiceJobs(jobs: NgspiceJob[]): NgspiceJobResult[] {
   }
 }
 
+/**
+ * Runs one netlist as written (e.g. the user-facing export, with its own dot-analyses and
+ * `.print` lines) in batch mode and returns ngspice's output.
+ */
+export function runNgspiceNetlist(netlist: string): string {
+  const dir = mkdtempSync(join(tmpdir(), 'channelsmith-ngspice-'));
+  try {
+    const file = join(dir, 'netlist.cir');
+    writeFileSync(file, netlist);
+    try {
+      return execFileSync('ngspice', ['-b', file], { encoding: 'utf8', timeout: 120_000, maxBuffer: 64 * 1024 * 1024, stdio: ['ignore', 'pipe', 'pipe'] });
+    } catch (error) {
+      const e = error as { stdout?: string; stderr?: string; message: string };
+      throw new Error(`ngspice failed: ${e.message}\n${e.stdout ?? ''}\n${e.stderr ?? ''}`);
+    }
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
 /** Magnitude of a complex sample. */
 export function magnitude(re: number, im: number): number {
   return Math.hypot(re, im);

@@ -9,12 +9,17 @@
  *    positive lead, the reference electrode impedance from the body to circuit ground;
  *  - input protection: series R in each lead, optional RC filter (Cdiff across the inputs,
  *    Ccm from each input to ground, the positive side larger by the stated mismatch);
+ *  - the amplifier's common-mode input impedance (Rcm ∥ Ccm per input; 1 TΩ ∥ 3 pF when the plan
+ *    gives none, as the engine assumes);
  *  - the three-op-amp instrumentation stage with op-amp macro-models: single-pole open-loop
- *    gain from the gain-bandwidth product, the op-amp's own common-mode error, voltage noise
- *    (noisy resistor Rn = e_n²/(4kT) copied by a unity VCVS, 1/f part from the resistor's
- *    flicker model) and current noise into the non-inverting input;
+ *    gain from the gain-bandwidth product, the op-amp's own common-mode error (sign selectable),
+ *    voltage noise (noisy resistor Rn = e_n²/(4kT) copied by a unity VCVS, 1/f part from the
+ *    resistor's flicker model) and independent current noise into both inputs;
  *  - the high-pass (none, first-order RC, or second-order Butterworth unity-gain Sallen-Key);
- *  - the gain stage (non-inverting amplifier with the gain-stage op-amp macro-model);
+ *  - the gain stage (non-inverting amplifier with the gain-stage op-amp macro-model); resistors
+ *    whose values the plan leaves open (high-pass R, Rf, Ri, filter R) are noiseless, and the
+ *    gain-stage op-amp's current noise is left out for the same reason;
+ *  - the plan's filter-network noise density at the filter input (shaped by the low-pass);
  *  - the anti-alias low-pass (Butterworth or Bessel, order 1–8) as cascaded unity-gain
  *    Sallen-Key sections with ideal buffers plus a real pole for odd orders, computed from
  *    the normalized poles of the family;
@@ -282,7 +287,10 @@ export function spiceNumber(value: number): string {
 
 /** Plain-ASCII comments, so that every SPICE reader accepts the file. */
 function toAscii(text: string): string {
-  const map: Record<string, string> = { '√': 'sqrt', '∥': '||', '·': '*', '−': '-', 'Ω': 'Ohm', 'τ': 'tau', 'ω': 'w', '²': '^2', '…': '...', '→': '->' };
+  const map: Record<string, string> = {
+    '√': 'sqrt', '∥': '||', '·': '*', '−': '-', 'Ω': 'Ohm', 'τ': 'tau', 'ω': 'w', '²': '^2', '…': '...', '→': '->',
+    '×': 'x', '±': '+/-', 'µ': 'u', '°': 'deg', '–': '-', '—': '-', 'Δ': 'delta',
+  };
   return text.replace(/[^\x00-\x7f]/g, (c) => map[c] ?? '?');
 }
 
@@ -597,11 +605,16 @@ export function planToNetlist(plan: ChannelPlan, options: NetlistOptions): strin
   const probes = 'v(in_p,in_n) v(va,vb) v(ina) v(hp) v(g2) v(lp) v(adc)';
   const prefix = options.controlOutputPrefix;
   if (prefix === undefined) {
-    if (options.analysis === 'ac' || options.analysis === 'cmrr') L.push(`.ac ${decSweep}`);
-    else if (options.analysis === 'noise') L.push(`.noise v(adc) Vd ${decSweep}`);
-    else {
+    if (options.analysis === 'ac' || options.analysis === 'cmrr') {
+      L.push(`.ac ${decSweep}`);
+      L.push(options.analysis === 'ac' ? '.print ac vdb(adc) vp(adc) vdb(ina) vdb(hp)' : '.print ac vdb(in_p,in_n) vdb(ina) vdb(adc)');
+    } else if (options.analysis === 'noise') {
+      L.push(`.noise v(adc) Vd ${decSweep}`);
+      L.push('.print noise all   ; spectra and totals; input-referred = onoise / |gain| at each frequency');
+    } else {
       const t = { stepS: 1e-3, stopS: 2, ...options.tran };
       L.push(`.tran ${spiceNumber(t.stepS)} ${spiceNumber(t.stopS)}`);
+      L.push('.print tran v(vd) v(ina) v(hp) v(adc)');
     }
   } else {
     L.push('.control');

@@ -19,8 +19,8 @@ import { resolvePlan } from '@/lib/engine/model';
 import type { ChannelPlan } from '@/lib/engine/plan';
 import { profileFor } from '@/lib/engine/profiles';
 import type { ChannelReport } from '@/lib/engine/report';
-import { resolveInstrumentation, type InstrumentationResistors, type NetlistOptions } from '@/lib/engine/spice-netlist';
-import { integrateDensityVrms, magnitude, magnitudeDbAt, ngspiceVersion, runNgspiceJobs, type AcSweep, type NgspiceJobResult } from '@/scripts/ngspice';
+import { planToNetlist, resolveInstrumentation, type InstrumentationResistors, type NetlistOptions } from '@/lib/engine/spice-netlist';
+import { integrateDensityVrms, magnitude, magnitudeDbAt, ngspiceVersion, runNgspiceJobs, runNgspiceNetlist, type AcSweep, type NgspiceJobResult } from '@/scripts/ngspice';
 import { demoPlans, mismatchedResistors, RANDOM_PLAN_COUNT, referencePlans } from '@/unit/helpers/ngspice-cases';
 import { fixturePlan } from '@/unit/helpers/ngspice-plans';
 
@@ -246,5 +246,20 @@ describe('low-frequency impulse test vs ngspice .tran (3 mV × 100 ms)', () => {
       console.info(`impulse test through the electrodes, order ${ic.order} at ${ic.fcHz} Hz: ngspice ${(spice.displacementV * 1e6).toFixed(1)} µV, ${(spice.slopeVPerS * 1e6).toFixed(1)} µV/s; engine (high-pass alone) ${(engine.displacementV * 1e6).toFixed(1)} µV, ${(engine.slopeVPerS * 1e6).toFixed(1)} µV/s`);
       expect(Math.abs(engine.displacementV / spice.displacementV - 1)).toBeLessThan(0.05);
     }
+  });
+});
+
+describe('the netlist as exported (dot-analyses, no control block)', () => {
+  const exportCases = [...demoPlans(), { name: 'fixture', plan: fixturePlan }].flatMap(({ name, plan }) =>
+    (['ac', 'noise', 'cmrr', 'tran'] as const).map((analysis) => ({ name, plan, analysis })),
+  );
+  it.each(exportCases)('$name, $analysis: plain ASCII, runs in ngspice batch mode without errors or warnings and prints its results', ({ plan, analysis }) => {
+    const netlist = planToNetlist(plan, { analysis, ...(analysis === 'tran' ? { tran: { stepS: 1e-3, stopS: 0.5 } } : { pointsPerDecade: 5 }) });
+    expect(/^[\x09\x0a\x0d\x20-\x7e]*$/.test(netlist)).toBe(true);
+    expect(netlist).toMatch(/^\.options TEMP=/m);
+    expect(netlist.trimEnd().endsWith('.end')).toBe(true);
+    const log = runNgspiceNetlist(netlist);
+    expect(log, log).not.toMatch(/error|warning/i);
+    expect(log).toMatch(analysis === 'noise' ? /onoise_total/ : analysis === 'tran' ? /Transient Analysis/i : /AC Analysis/i);
   });
 });
