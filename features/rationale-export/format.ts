@@ -66,6 +66,8 @@ export function eng(value: number | null | undefined, unit: string, significantD
     const text = trimZeros(Number(value.toPrecision(significantDigits)).toString());
     return unit === '' ? text : unit === '%' || unit === '°' ? `${text}${unit}` : `${text} ${unit}`;
   }
+  // Sub-hertz corners read better as decimals ("0.05 Hz", not "50 mHz"), as the standards write them.
+  if (unit === 'Hz' && Math.abs(value) >= 1e-3 && Math.abs(value) < 1) return `${trimZeros(Number(value.toPrecision(significantDigits)).toString())} Hz`;
   const parts = engParts(value, significantDigits) ?? { mantissa: NOT_AVAILABLE, prefix: '' };
   return `${parts.mantissa} ${parts.prefix}${unit}`;
 }

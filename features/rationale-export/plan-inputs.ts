@@ -8,7 +8,11 @@ import { profileFor } from '@/lib/engine/profiles';
 import { eng, percent } from './format';
 
 export type InputRow = { label: string; value: string; source: string };
-export type InputSection = { title: string; rows: InputRow[] };
+/** `partSource`: where a part's values come from, stated once for the rows marked `PART_ENTRY`. */
+export type InputSection = { title: string; partSource?: string; rows: InputRow[] };
+
+/** Source column of a row whose value comes from the part named in the section's `partSource`. */
+export const PART_ENTRY = 'part values (source above)';
 
 const PLAN_ENTRY = 'entered in the plan';
 
@@ -17,8 +21,8 @@ function partSource(source: string | undefined, what: string): string {
   return s ? s : `${what}: no source given in the plan`;
 }
 
-function opAmpRows(a: OpAmp, source: string): InputRow[] {
-  const row = (label: string, value: string, src = source): InputRow => ({ label, value, source: src });
+function opAmpRows(a: OpAmp): InputRow[] {
+  const row = (label: string, value: string, src = PART_ENTRY): InputRow => ({ label, value, source: src });
   return [
     row('Voltage-noise density e_n', eng(a.enVPerRtHz, 'V/rtHz')),
     row('Voltage-noise 1/f corner', a.enCornerHz === 0 ? 'none (white only)' : eng(a.enCornerHz, 'Hz')),
@@ -78,14 +82,15 @@ export function planInputSections(plan: ChannelPlan): InputSection[] {
     },
     {
       title: 'Electrodes',
+      partSource: electrodeSource,
       rows: [
-        entry('Electrode DC offset (worst case)', eng(e.offsetV, 'V'), electrodeSource),
-        entry('Series resistance Rs (each)', eng(e.rsOhm, 'Ω'), electrodeSource),
-        entry('Parallel resistance Rp (each)', eng(e.rpOhm, 'Ω'), electrodeSource),
-        entry('Parallel capacitance Cp (each)', eng(e.cpF, 'F'), electrodeSource),
+        entry('Electrode DC offset (worst case)', eng(e.offsetV, 'V'), PART_ENTRY),
+        entry('Series resistance Rs (each)', eng(e.rsOhm, 'Ω'), PART_ENTRY),
+        entry('Parallel resistance Rp (each)', eng(e.rpOhm, 'Ω'), PART_ENTRY),
+        entry('Parallel capacitance Cp (each)', eng(e.cpF, 'F'), PART_ENTRY),
         entry('Imbalance network in one lead', e.imbalanceROhm === 0 && e.imbalanceCF === 0 ? 'none' : `${eng(e.imbalanceROhm, 'Ω')} || ${eng(e.imbalanceCF, 'F')}`),
-        entry('Reference electrode impedance', eng(e.groundOhm, 'Ω'), electrodeSource),
-        entry('Impedance mismatch between leads', e.impedanceMismatch === undefined ? 'not given (imbalance network only)' : percent(e.impedanceMismatch), electrodeSource),
+        entry('Reference electrode impedance', eng(e.groundOhm, 'Ω'), PART_ENTRY),
+        entry('Impedance mismatch between leads', e.impedanceMismatch === undefined ? 'not given (imbalance network only)' : percent(e.impedanceMismatch), PART_ENTRY),
       ],
     },
     { title: 'Body coupling', rows: body },
@@ -107,9 +112,9 @@ export function planInputSections(plan: ChannelPlan): InputSection[] {
         entry('Difference-stage resistor R3', eng(ina.r3Ohm, 'Ω')),
         entry('Difference-stage gain Gd = R4/R3', eng(ina.diffGain, 'V/V')),
         entry('Resistor tolerance', percent(ina.resistorTolerance)),
-        ...opAmpRows(ina.opAmp, inaSource),
       ],
     },
+    { title: 'Instrumentation-stage op-amps (three, identical nominal values)', partSource: inaSource, rows: opAmpRows(ina.opAmp) },
     {
       title: 'Supply',
       rows: [entry('Positive rail', eng(plan.supply.positiveV, 'V')), entry('Negative rail', eng(plan.supply.negativeV, 'V')), entry('Reference (mid-scale) voltage', eng(plan.supply.referenceV, 'V'))],
@@ -128,9 +133,9 @@ export function planInputSections(plan: ChannelPlan): InputSection[] {
         entry('Low-pass family and order', `${plan.gainStage.lowPass.kind === 'butterworth' ? 'Butterworth' : 'Bessel'}, order ${plan.gainStage.lowPass.order}`),
         entry('Low-pass -3 dB corner', eng(plan.gainStage.lowPass.fcHz, 'Hz')),
         entry('Filter-network noise (output)', eng(plan.gainStage.filterNoiseVPerRtHz, 'V/rtHz')),
-        ...opAmpRows(plan.gainStage.opAmp, g2Source),
       ],
     },
+    { title: 'Gain-stage op-amp', partSource: g2Source, rows: opAmpRows(plan.gainStage.opAmp) },
     {
       title: 'Converter',
       rows: [

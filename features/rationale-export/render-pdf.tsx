@@ -47,11 +47,11 @@ const STATE_LABELS: Record<RationaleInput['revision']['state'], string> = {
 };
 
 const s = StyleSheet.create({
-  page: { fontFamily: PDF_FONT_FAMILIES as unknown as string, fontSize: 8, color: '#0f172a', paddingTop: 64, paddingBottom: 64, paddingHorizontal: MARGIN_X_PT, lineHeight: 1.3 },
-  header: { position: 'absolute', top: 20, left: MARGIN_X_PT, right: MARGIN_X_PT, borderBottomWidth: 0.6, borderBottomColor: '#94a3b8', paddingBottom: 4 },
+  page: { fontFamily: PDF_FONT_FAMILIES as unknown as string, fontSize: 8, color: '#0f172a', paddingTop: 70, paddingBottom: 64, paddingHorizontal: MARGIN_X_PT, lineHeight: 1.3 },
+  header: { position: 'absolute', top: 18, left: MARGIN_X_PT, right: MARGIN_X_PT, borderBottomWidth: 0.6, borderBottomColor: '#94a3b8', paddingBottom: 4 },
   headerRow: { flexDirection: 'row', justifyContent: 'space-between' },
   headerMain: { fontSize: 8, fontWeight: 700 },
-  headerSub: { fontSize: 6.5, color: '#334155' },
+  headerSub: { fontSize: 6.2, color: '#334155' },
   // Positioned from the top: a View anchored with `bottom` gets a runaway offset on long documents in react-pdf 4.
   footer: { position: 'absolute', top: PAGE_HEIGHT_PT - 52, left: MARGIN_X_PT, right: MARGIN_X_PT, borderTopWidth: 0.6, borderTopColor: '#94a3b8', paddingTop: 3, flexDirection: 'row', justifyContent: 'space-between' },
   footerCaution: { fontSize: 6, color: '#334155', width: CONTENT_WIDTH_PT - 70 },
@@ -181,6 +181,11 @@ export function sourceText(source: string, verified: boolean): string {
   return /from memory|common practice/i.test(source) ? `${source} [unverified]` : `${source} [unverified: from memory or secondary source]`;
 }
 
+/** A SHA-256 hex digest in two halves, so that table cells wrap it at a clean place. */
+function splitHash(hash: string): string {
+  return hash.length === 64 ? `${hash.slice(0, 32)} ${hash.slice(32)}` : hash;
+}
+
 function marginText(c: Check): string {
   if (!Number.isFinite(c.margin)) return NOT_AVAILABLE;
   if (c.limit === 0) return checkValueText(c.margin, c.unit);
@@ -195,12 +200,11 @@ function Header(props: { data: RationaleInput }) {
   return (
     <View style={s.header} fixed>
       <View style={s.headerRow}>
-        <Text style={s.headerMain}>{pdfText(`${data.program.name} / ${data.plan.name}`)}</Text>
-        <Text style={s.headerMain}>{pdfText(`Revision ${data.revision.label} (${STATE_LABELS[data.revision.state]})`)}</Text>
+        <Text style={[s.headerMain, { flex: 1, paddingRight: 8 }]}>{pdfText(`${data.program.name} / ${data.plan.name}`)}</Text>
+        <Text style={[s.headerMain, { width: 130, textAlign: 'right' }]}>{pdfText(`Revision ${data.revision.label} (${STATE_LABELS[data.revision.state]})`)}</Text>
       </View>
       <View style={s.headerRow}>
-        <Text style={s.headerSub}>{pdfText(`Design rationale, revision created ${dateTimeUtc(data.revision.createdAt)} by ${data.revision.createdByName}`)}</Text>
-        <Text style={s.headerSub}>{`Content hash SHA-256 ${data.revision.contentHash}`}</Text>
+        <Text style={s.headerSub}>{pdfText(`Design rationale; revision created ${dateTimeUtc(data.revision.createdAt)} by ${data.revision.createdByName}; content hash SHA-256 ${data.revision.contentHash}`)}</Text>
       </View>
     </View>
   );
@@ -296,6 +300,7 @@ function InputsSection(props: { plan: ChannelPlan }) {
       {planInputSections(props.plan).map((section) => (
         <View key={section.title}>
           <H3>{section.title}</H3>
+          {section.partSource ? <P small>{`Source of the part values: ${section.partSource}`}</P> : null}
           <Table
             columns={[
               { header: 'Quantity', flex: 2.4 },
@@ -326,7 +331,12 @@ function LevelsSection(props: { report: ChannelReport }) {
           ['Total mid-band gain', `${eng(r.gains.totalGain, 'V/V', 4)} (${eng(20 * Math.log10(r.gains.totalGain), 'dB')})`],
           ['Worst-case differential DC input', `+/- ${eng(r.worstCaseInputV, 'V', 4)} (offset, bias and lead-off terms, op-amp offsets, signal)`],
           ['Largest offset-safe first-stage gain', `${eng(r.maxFirstStageGain, 'V/V', 4)}, limited by ${r.maxFirstStageGainDetail.limitingNode}${r.maxFirstStageGainDetail.rgOhm !== null ? ` (Rg >= ${eng(r.maxFirstStageGainDetail.rgOhm, 'Ω')})` : ''}`],
-          ['Common-mode window at that input', `${eng(cm.minV, 'V', 4)} to ${eng(cm.maxV, 'V', 4)} (Vd = ${eng(cm.vdV, 'V', 4)})`],
+          [
+            'Common-mode window at that input',
+            cm.minV <= cm.maxV
+              ? `${eng(cm.minV, 'V', 4)} to ${eng(cm.maxV, 'V', 4)} (Vd = ${eng(cm.vdV, 'V', 4)})`
+              : `empty: no common-mode voltage keeps every first-stage node in range at Vd = ${eng(cm.vdV, 'V', 4)}`,
+          ],
         ]}
       />
       <Table
@@ -469,10 +479,12 @@ function MainsSection(props: { report: ChannelReport; mainsLimitPpV: number | nu
   const { cmrr, interference } = props.report;
   const cmrrRange = niceRange(cmrr.points.map((p) => p.cmrrDb), 'linear');
   const bars = [...interference.terms.map((t, i) => ({ label: t.name, value: t.rtiPpV, color: PLOT_COLORS[(i + 1) % PLOT_COLORS.length] })), { label: 'total (terms in magnitude)', value: interference.rtiPpV, color: '#0f172a' }];
-  const barRange = niceRange(bars.map((b) => b.value), 'log', props.mainsLimitPpV !== null ? [props.mainsLimitPpV] : []);
+  const fitted = niceRange(bars.map((b) => b.value), 'log', props.mainsLimitPpV !== null ? [props.mainsLimitPpV] : []);
+  // A limit on the axis end would hide under the frame: leave a decade beyond it.
+  const barRange = props.mainsLimitPpV !== null && props.mainsLimitPpV >= fitted.max * 0.999 ? { min: fitted.min, max: fitted.max * 10 } : fitted;
   const cmTest = interference.cmrTest;
   return (
-    <Section title="6  Common-mode rejection and mains interference" breakBefore>
+    <Section title="6  Common-mode rejection and mains interference">
       <Table
         columns={[
           { header: 'CMRR of the instrumentation stage', flex: 3 },
@@ -498,13 +510,13 @@ function MainsSection(props: { report: ChannelReport; mainsLimitPpV: number | nu
         </Figure>
       ) : null}
       <H3>Mains interference in use</H3>
+      <KeyValues rows={[['Body common-mode voltage at mains frequency', eng(interference.bodyCmV, 'V rms')]]} />
       <Table
         columns={[
           { header: 'Term', flex: 3 },
           { header: 'RTI, peak-to-peak', flex: 1.2, align: 'right' },
         ]}
         rows={[
-          ['Body common-mode voltage at mains frequency', eng(interference.bodyCmV, 'V rms')],
           ...interference.terms.map((t) => [t.name, eng(t.rtiPpV, 'V')]),
           [{ text: 'Total referred to input (terms added in magnitude)', bold: true }, { text: eng(interference.rtiPpV, 'V'), bold: true }],
           ['Right-leg drive at its current limit', interference.rightLegDriveSaturated ? 'yes: no reduction credited' : 'no'],
@@ -627,7 +639,7 @@ function NotesSection(props: { report: ChannelReport }) {
 function ReviewSection(props: { data: RationaleInput }) {
   const { review, revision } = props.data;
   return (
-    <Section title="10  Review record" breakBefore>
+    <Section title="10  Review record">
       <KeyValues
         rows={[
           ['Review requested', review.requestedAt ? dateTimeUtc(review.requestedAt) : 'not requested'],
@@ -664,7 +676,7 @@ function ReviewSection(props: { data: RationaleInput }) {
             sg.role,
             { text: sg.meaning === 'approved' ? 'approved' : 'changes requested', color: sg.meaning === 'approved' ? VERDICT_COLORS.meets.fg : VERDICT_COLORS.fails.fg, bold: true },
             dateTimeUtc(sg.at),
-            `${sg.contentHash}${sg.contentHash === revision.contentHash ? ' (this revision)' : ' (a DIFFERENT content: not this revision)'}`,
+            `${splitHash(sg.contentHash)}\n${sg.contentHash === revision.contentHash ? '(this revision)' : '(a DIFFERENT content: not this revision)'}`,
           ])}
         />
       ) : (
