@@ -566,14 +566,14 @@ export function planToNetlist(plan: ChannelPlan, options: NetlistOptions): strin
     const R = LOW_PASS_RES_OHM;
     if (s.kind === 'real') {
       L.push(`* section ${k}: real pole at ${spiceNumber(w0 / (2 * Math.PI))}Hz`);
-      L.push(`Rlp${k} ${node} lp${k}x ${spiceNumber(R)} noisy=0`);
-      L.push(`Clp${k} lp${k}x vref ${spiceNumber(1 / (w0 * R))}`);
+      L.push(`Rlp${k} ${node} lp${k}x ${spiceNumber(R)} noisy=0   ; RC section resistor`);
+      L.push(`Clp${k} lp${k}x vref ${spiceNumber(1 / (w0 * R))}   ; RC section capacitor, C = 1/(w0*R)`);
       L.push(`Elp${k} ${out} vref lp${k}x vref 1   ; ideal buffer`);
     } else {
       // Unity-gain Sallen-Key low-pass, equal R: C1 (feedback) = 2Q/(ω0·R), C2 (to reference) = 1/(2Q·ω0·R).
       L.push(`* section ${k}: pole pair f0 = ${spiceNumber(w0 / (2 * Math.PI))}Hz, Q = ${s.q.toFixed(6)} (unity-gain Sallen-Key, equal R)`);
-      L.push(`Rlp${k}a ${node} lp${k}a ${spiceNumber(R)} noisy=0`);
-      L.push(`Rlp${k}b lp${k}a lp${k}b ${spiceNumber(R)} noisy=0`);
+      L.push(`Rlp${k}a ${node} lp${k}a ${spiceNumber(R)} noisy=0   ; first series resistor`);
+      L.push(`Rlp${k}b lp${k}a lp${k}b ${spiceNumber(R)} noisy=0   ; second series resistor`);
       L.push(`Clp${k}a lp${k}a ${out} ${spiceNumber((2 * s.q) / (w0 * R))}   ; feedback capacitor`);
       L.push(`Clp${k}b lp${k}b vref ${spiceNumber(1 / (2 * s.q * w0 * R))}   ; capacitor to the reference`);
       L.push(`Elp${k} ${out} vref lp${k}b vref 1   ; ideal buffer`);

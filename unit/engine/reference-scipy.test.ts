@@ -44,8 +44,8 @@ const requests: Labeled[] = [
   ...lowPassCases.map(({ family, order }) => ({ label: `enbw ${family} ${order}`, request: { kind: 'enbw', family, order } as ScipyRequest })),
   ...impulseCases.map(({ hpOrder, fcHz }) => ({
     label: `lsim ${hpOrder} ${fcHz}`,
-    // 6 time constants after the pulse, 0.1 ms steps
-    request: { kind: 'lsim', hpOrder, fcHz, ...PULSE, durationS: PULSE.delayS + PULSE.widthS + 6 / (2 * Math.PI * fcHz), stepS: 1e-4 } as ScipyRequest,
+    // 6 time constants after the pulse, 0.2 ms steps
+    request: { kind: 'lsim', hpOrder, fcHz, ...PULSE, durationS: PULSE.delayS + PULSE.widthS + 6 / (2 * Math.PI * fcHz), stepS: 2e-4 } as ScipyRequest,
   })),
 ];
 
