@@ -3,7 +3,7 @@ import { getPlanById } from '@/db/queries/plans';
 import { getRevisionById } from '@/db/queries/revisions';
 import { AppError, errorResponse } from '@/features/auth/errors';
 import { requireSession } from '@/features/auth/guard';
-import { parseIdParam } from '@/features/plans/request';
+import { parseIdParam } from '@/app/api/programs/_shared/request';
 import { compareRevisions } from '@/features/revisions/compare';
 import type { ChannelReport } from '@/lib/engine/report';
 import { canReadRevision, regulatorReadsReleasedOnly, revisionNotFound } from '@/app/api/revisions/_shared/access';

@@ -4,7 +4,7 @@ import { listPlanAuditEvents } from '@/db/queries/revisions';
 import { AppError, errorResponse } from '@/features/auth/errors';
 import { requireSession } from '@/features/auth/guard';
 import { toHistoryEntry } from '@/features/history/history-entry';
-import { parseIdParam } from '@/features/plans/request';
+import { parseIdParam } from '@/app/api/programs/_shared/request';
 import { releasedStates } from '@/features/revisions/revision-states';
 import { canReadWorkInProgress } from '@/lib/auth/permissions';
 

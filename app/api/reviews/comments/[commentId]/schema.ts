@@ -1,0 +1,1 @@
+export { resolveCommentInputSchema as resolveCommentBodySchema } from '@/features/reviews/schemas';

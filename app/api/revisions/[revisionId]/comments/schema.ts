@@ -1,0 +1,1 @@
+export { addCommentInputSchema as addCommentBodySchema } from '@/features/reviews/schemas';

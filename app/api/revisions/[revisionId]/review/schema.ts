@@ -1,0 +1,1 @@
+export { requestReviewInputSchema as requestReviewBodySchema } from '@/features/reviews/schemas';

@@ -1,0 +1,1 @@
+export { signReviewInputSchema as signReviewBodySchema } from '@/features/reviews/schemas';
