@@ -145,7 +145,10 @@ function Workspace({ planId, initialPlan, initialVersion, canEdit, parts, planNa
     (stageId: StageId, part: PartOption) => {
       const { plan, changed } = applyPart(draftRef.current, stageId, part);
       replaceDraft(plan, changed);
-      setStatus({ kind: 'info', message: `Filled ${stages[stageId].noun} from “${part.name}” (${changed.length} values changed; not saved yet).` });
+      const maxRateHz = part.values.sampleRateMaxHz;
+      const rateHz = draftRef.current.adc && typeof (draftRef.current.adc as Record<string, unknown>).sampleRateHz === 'number' ? ((draftRef.current.adc as Record<string, unknown>).sampleRateHz as number) : undefined;
+      const rateNote = part.kind === 'converter' && maxRateHz !== undefined && rateHz !== undefined && rateHz > maxRateHz ? ` Note: the plan's sample rate is above this converter's maximum (${maxRateHz} Hz).` : '';
+      setStatus({ kind: 'info', message: `Filled ${stages[stageId].noun} from “${part.name}” (${changed.length} values changed; not saved yet).${rateNote}` });
     },
     [replaceDraft],
   );

@@ -8,7 +8,7 @@ import type { ChannelPlan } from '@/lib/engine/plan';
 import type { ChannelReport } from '@/lib/engine/report';
 import type { StageId } from '@/features/plan-workspace/stage-fields';
 import { planningAidCaution } from '@/lib/cautions';
-import { verdictCounts } from '@/features/plan-workspace/report-view';
+import { saturatedNodes, verdictCounts } from '@/features/plan-workspace/report-view';
 import { LevelsView } from '@/features/plan-workspace/components/views/levels-view';
 import { NoiseView } from '@/features/plan-workspace/components/views/noise-view';
 import { MainsView } from '@/features/plan-workspace/components/views/mains-view';
@@ -34,6 +34,7 @@ export function ResultViews({ report, plan, canEdit, onOpenStage, onApplySuggest
   const [active, setActive] = useState<Tab>('Levels');
   const refs = useRef<Record<string, HTMLButtonElement | null>>({});
   const counts = verdictCounts(report.checks);
+  const saturated = saturatedNodes(report);
   // Held here (not in the view) so a run survives switching tabs.
   const tolerance = useToleranceRun();
 
@@ -56,6 +57,19 @@ export function ResultViews({ report, plan, canEdit, onOpenStage, onApplySuggest
         <strong className="font-semibold">Caution. </strong>
         {planningAidCaution}
       </aside>
+      {saturated.length > 0 && (
+        <div role="alert" className="flex flex-wrap items-center justify-between gap-2 rounded border border-verdict-fails bg-verdict-fails/5 px-3 py-2 text-sm text-verdict-fails">
+          <span>
+            <strong>Saturation:</strong> {saturated.map((s) => s.nodeName).join(', ')} {saturated.length === 1 ? 'saturates' : 'saturate'} with the worst-case
+            offset and signal.
+          </span>
+          {active !== 'Levels' && (
+            <button type="button" className="font-medium underline underline-offset-2" onClick={() => setActive('Levels')}>
+              Show levels
+            </button>
+          )}
+        </div>
+      )}
       <div className="flex flex-wrap items-end justify-between gap-2 border-b border-slate-300">
         <div role="tablist" aria-label="Result views" className="flex flex-wrap gap-1">
           {tabs.map((t) => (
@@ -90,8 +104,8 @@ export function ResultViews({ report, plan, canEdit, onOpenStage, onApplySuggest
         {active === 'Noise' && <NoiseView report={report} />}
         {active === 'Mains' && <MainsView report={report} mainsHz={plan?.mainsHz} />}
         {active === 'Response' && <ResponseView report={report} plan={plan} />}
-        {active === 'Waveforms' && <WaveformsView plan={plan} />}
-        {active === 'Tolerance' && <ToleranceView plan={plan} state={tolerance.state} onStart={tolerance.start} onCancel={tolerance.cancel} />}
+        {active === 'Waveforms' && <WaveformsView plan={plan} canEdit={canEdit} />}
+        {active === 'Tolerance' && <ToleranceView plan={plan} canEdit={canEdit} state={tolerance.state} onStart={tolerance.start} onCancel={tolerance.cancel} />}
         {active === 'Checks' && <ChecksView report={report} canEdit={canEdit} onOpenStage={onOpenStage} onApplySuggestion={onApplySuggestion} />}
       </div>
     </section>

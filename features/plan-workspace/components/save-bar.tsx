@@ -51,7 +51,9 @@ export function ConflictPanel({
 }) {
   const [showChanges, setShowChanges] = useState(false);
   const theirChanges = diffPlans(baseline, conflict.plan);
-  const mine = new Set(diffPlans(baseline, draft).map((c) => c.path.join('.')));
+  const myChanges = diffPlans(baseline, draft);
+  const mine = new Set(myChanges.map((c) => c.path.join('.')));
+  const yours = new Map(myChanges.map((c) => [c.path.join('.'), c.afterText]));
   return (
     <section role="alert" aria-labelledby="conflict-title" className="rounded-lg border border-verdict-marginal bg-verdict-marginal/5 p-4">
       <h3 id="conflict-title" className="font-semibold text-ink">
@@ -90,7 +92,7 @@ export function ConflictPanel({
                   <th scope="col" className="py-1 pr-3">Field</th>
                   <th scope="col" className="py-1 pr-3">Before</th>
                   <th scope="col" className="py-1 pr-3">Their value</th>
-                  <th scope="col" className="py-1">You also changed it</th>
+                  <th scope="col" className="py-1 pr-3">Your value here</th>
                 </tr>
               </thead>
               <tbody>
@@ -99,7 +101,7 @@ export function ConflictPanel({
                     <td className="py-1 pr-3 font-medium">{c.label}</td>
                     <td className="py-1 pr-3 tabular-nums">{c.beforeText}</td>
                     <td className="py-1 pr-3 tabular-nums">→ {c.afterText}</td>
-                    <td className="py-1">{mine.has(c.path.join('.')) ? 'yes' : ''}</td>
+                    <td className="py-1 pr-3 tabular-nums">{mine.has(c.path.join('.')) ? yours.get(c.path.join('.')) : 'unchanged'}</td>
                   </tr>
                 ))}
               </tbody>

@@ -117,6 +117,22 @@ export function StageForm({ stageId, plan, typed, issues, parts, onEdit, onTyped
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, []);
 
+  /** On leaving a field, a valid entry is shown back in engineering notation with its unit ("51k" → "51 kΩ"). */
+  const normalize = (f: FieldDef, text: string) => {
+    if (f.kind !== 'quantity' && f.kind !== 'percent' && f.kind !== 'number') return;
+    const parsed = textToValue(f, text);
+    if (!parsed.ok) return;
+    const canonical = valueToText(f, parsed.value);
+    if (canonical === text) return;
+    echo.current = true;
+    try {
+      setValue(fieldKey(f.path), canonical, { shouldValidate: true });
+    } finally {
+      echo.current = false;
+    }
+    latest.current.onTyped(fieldKey(f.path), canonical, true);
+  };
+
   const matchingParts = info.partKind ? parts.filter((p) => p.kind === info.partKind) : [];
   const visible = fields.filter((f) => !f.visibleWhen || f.visibleWhen(plan));
   const headingId = `stage-form-${stageId}-title`;
@@ -157,7 +173,7 @@ export function StageForm({ stageId, plan, typed, issues, parts, onEdit, onTyped
       )}
       <form className="grid grid-cols-1 gap-x-6 gap-y-3 sm:grid-cols-2 xl:grid-cols-3" onSubmit={(e) => e.preventDefault()} noValidate>
         {visible.map((f) => (
-          <FieldInput key={fieldKey(f.path)} field={f} plan={plan} register={register} errors={errors} issues={issues} />
+          <FieldInput key={fieldKey(f.path)} field={f} plan={plan} register={register} errors={errors} issues={issues} onNormalize={normalize} />
         ))}
       </form>
     </section>
@@ -170,12 +186,14 @@ function FieldInput({
   register,
   errors,
   issues,
+  onNormalize,
 }: {
   field: FieldDef;
   plan: PlanDraft;
   register: ReturnType<typeof useForm<FormValues>>['register'];
   errors: FieldErrors<FormValues>;
   issues: Record<string, string>;
+  onNormalize: (field: FieldDef, text: string) => void;
 }) {
   const key = fieldKey(field.path);
   const id = `field-${key}`;
@@ -225,7 +243,7 @@ function FieldInput({
           aria-invalid={message ? true : undefined}
           aria-describedby={describedBy}
           placeholder={derivedPlaceholder(field, plan)}
-          {...register(key)}
+          {...register(key, { onBlur: (e: React.FocusEvent<HTMLInputElement>) => onNormalize(field, e.target.value) })}
         />
       )}
       {hint && (

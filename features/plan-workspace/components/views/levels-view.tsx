@@ -65,7 +65,7 @@ export function LevelsView({ report }: { report: ChannelReport }) {
   return (
     <div className="space-y-3">
       {saturated.length > 0 && (
-        <div role="alert" className="rounded border border-verdict-fails bg-verdict-fails/5 p-3 text-sm text-verdict-fails">
+        <div className="rounded border border-verdict-fails bg-verdict-fails/5 p-3 text-sm text-verdict-fails">
           <p className="font-semibold">
             {saturated.length === 1 ? 'One node saturates' : `${saturated.length} nodes saturate`} with the worst-case offset and signal:
           </p>

@@ -16,6 +16,8 @@ const trialChoices = [10_000, 50_000, 200_000];
 
 interface ToleranceViewProps {
   plan: ChannelPlan | null;
+  /** Read-only viewers run the analysis with the default settings (no inputs are shown to them). */
+  canEdit: boolean;
   state: ToleranceState;
   onStart: (plan: ChannelPlan, settings: ToleranceSettings) => void;
   onCancel: () => void;
@@ -31,7 +33,7 @@ function limitsOf(plan: ChannelPlan): { cmrrMinDb?: number; interferenceMaxPpV?:
   }
 }
 
-export function ToleranceView({ plan, state, onStart, onCancel }: ToleranceViewProps) {
+export function ToleranceView({ plan, canEdit, state, onStart, onCancel }: ToleranceViewProps) {
   const [settings, setSettings] = useState<ToleranceSettings>({ trials: 50_000, seed: 1, distribution: 'uniform' });
   const running = state.kind === 'running';
   const stale = state.kind === 'done' && plan !== null && state.planKey !== JSON.stringify(plan);
@@ -45,6 +47,8 @@ export function ToleranceView({ plan, state, onStart, onCancel }: ToleranceViewP
           if (plan && !running) onStart(plan, settings);
         }}
       >
+        {canEdit ? (
+          <>
         <label className="flex flex-col gap-1">
           <span className="text-xs text-ink-soft">Trials</span>
           <select className="rounded border border-slate-300 px-2 py-1" value={settings.trials} disabled={running} onChange={(e) => setSettings({ ...settings, trials: Number(e.target.value) })}>
@@ -79,6 +83,12 @@ export function ToleranceView({ plan, state, onStart, onCancel }: ToleranceViewP
             onChange={(e) => setSettings({ ...settings, seed: Number.isFinite(Number(e.target.value)) ? Math.round(Number(e.target.value)) : 1 })}
           />
         </label>
+          </>
+        ) : (
+          <span className="text-ink-soft">
+            {settings.trials.toLocaleString('en')} trials, uniform over ± tolerance, seed {settings.seed}
+          </span>
+        )}
         <button type="submit" disabled={!plan || running} className="rounded bg-copper px-3 py-1.5 font-semibold text-white hover:bg-copper-dark disabled:opacity-50">
           Run tolerance analysis
         </button>

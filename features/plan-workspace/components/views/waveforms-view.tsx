@@ -20,7 +20,7 @@ export function waveformSampleRateHz(plan: ChannelPlan): number {
   return Math.min(200_000, Math.max(2000, 5 * plan.gainStage.lowPass.fcHz, plan.adc.sampleRateHz));
 }
 
-export function WaveformsView({ plan }: { plan: ChannelPlan | null }) {
+export function WaveformsView({ plan, canEdit }: { plan: ChannelPlan | null; canEdit: boolean }) {
   const deferredPlan = useDeferredValue(plan);
   const [durationS, setDurationS] = useState<(typeof durations)[number]>(5);
   const [seed, setSeed] = useState(1);
@@ -105,6 +105,8 @@ export function WaveformsView({ plan }: { plan: ChannelPlan | null }) {
   return (
     <div className="space-y-3">
       <div className="flex flex-wrap items-center gap-4 rounded border border-slate-200 bg-white p-3 text-sm">
+        {canEdit ? (
+          <>
         <label className="flex items-center gap-2">
           Record length
           <select className="rounded border border-slate-300 px-2 py-1" value={durationS} onChange={(e) => setDurationS(Number(e.target.value) as (typeof durations)[number])}>
@@ -118,6 +120,10 @@ export function WaveformsView({ plan }: { plan: ChannelPlan | null }) {
         <button type="button" className="rounded border border-slate-300 px-2 py-1 hover:border-copper" onClick={() => setSeed((s) => s + 1)}>
           New noise realisation
         </button>
+          </>
+        ) : (
+          <span>Record length {durationS} s</span>
+        )}
         <span className="text-xs text-ink-soft">
           {sim.signal.toUpperCase()} synthetic signal, simulated at {formatEng(sim.sampleRateHz, 'Hz')}, seed {sim.seed}; converter LSB {formatEng(sim.adc.lsbV, 'V')}.
         </span>
