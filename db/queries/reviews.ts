@@ -255,7 +255,7 @@ export async function addReviewComment({
       .select({ id: planRevisions.id })
       .from(planRevisions)
       .where(and(eq(planRevisions.id, revisionId), eq(planRevisions.workspaceId, workspaceId)))
-      .for('share');
+      .for('update');
     if (!revision) return { status: 'not-found' } as const;
     let resolvedAnchor = anchor;
     if (parentCommentId !== undefined) {

@@ -433,7 +433,7 @@ export async function createImportedPlan({
       .select({ id: programs.id, archivedAt: programs.archivedAt })
       .from(programs)
       .where(and(eq(programs.id, programId), eq(programs.workspaceId, workspaceId)))
-      .for('share');
+      .for('update');
     if (!program) return { status: 'not-found' } as const;
     if (program.archivedAt) return { status: 'program-archived' } as const;
     const [created] = await tx

@@ -3,7 +3,8 @@ import { getReviewRecord } from '@/db/queries/reviews';
 import { errorResponse } from '@/features/auth/errors';
 import { requireSession } from '@/features/auth/guard';
 import { parseIdParam } from '@/app/api/programs/_shared/request';
-import { loadReadableRevision } from '@/app/api/revisions/_shared/access';
+import { canWriteAnything } from '@/lib/auth/permissions';
+import { loadReadableRevision, regulatorNeverWrites } from '@/app/api/revisions/_shared/access';
 import { toReviewRecordDto, toRevisionDetailDto } from '@/app/api/revisions/_shared/dto';
 
 type Context = { params: Promise<{ revisionId: string }> };
@@ -27,7 +28,8 @@ export async function GET(_request: Request, context: Context) {
 async function refuseChange(context: Context) {
   try {
     parseIdParam((await context.params).revisionId, 'revision');
-    await requireSession();
+    const member = await requireSession();
+    if (!canWriteAnything(member)) throw regulatorNeverWrites();
     return NextResponse.json(
       {
         error: {
