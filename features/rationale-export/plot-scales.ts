@@ -74,7 +74,8 @@ export function niceRange(values: readonly number[], kind: AxisKind, include: re
     hi += pad;
   }
   const step = niceStep(lo, hi, 5);
-  return { min: Math.floor(lo / step + 1e-9) * step, max: Math.ceil(hi / step - 1e-9) * step };
+  const clean = (v: number) => Number(v.toPrecision(12)); // 17 × 0.2 = 3.4000000000000004 → 3.4
+  return { min: clean(Math.floor(lo / step + 1e-9) * step), max: clean(Math.ceil(hi / step - 1e-9) * step) };
 }
 
 /**

@@ -298,7 +298,8 @@ function InputsSection(props: { plan: ChannelPlan }) {
     <Section title="1  Inputs" breakBefore>
       <P small>Every value of the plan, in engineering notation, with where it comes from (part library entry or datasheet as named in the plan, a plan entry, a profile default, or an engine assumption).</P>
       {planInputSections(props.plan).map((section) => (
-        <View key={section.title}>
+        // A stage's inputs (at most a few dozen rows) stay on one page with their title and source note.
+        <View key={section.title} wrap={section.rows.length > 25}>
           <H3>{section.title}</H3>
           {section.partSource ? <P small>{`Source of the part values: ${section.partSource}`}</P> : null}
           <Table
