@@ -38,8 +38,8 @@ const commentBody = z
   .min(1, { message: 'body must not be empty' })
   .max(10_000, { message: 'body must be at most 10000 characters' });
 
-/** POST /api/revisions/[revisionId]/comments: a new comment (anchored) or a reply (to a parent). */
-export const addCommentInputSchema = z.union(
+const anchoredCommentSchema = z.discriminatedUnion(
+  'anchorKind',
   [
     z.strictObject(
       {
@@ -59,11 +59,29 @@ export const addCommentInputSchema = z.union(
       },
       { error: unknownKeys },
     ),
-    z.strictObject({ parentCommentId: idSchema('parentCommentId'), body: commentBody }, { error: unknownKeys }),
   ],
-  { error: 'give anchorKind (stage or check) with anchorId and body, or parentCommentId and body' },
+  { error: 'anchorKind must be stage or check (or give parentCommentId to reply)' },
 );
-export type AddCommentInput = z.infer<typeof addCommentInputSchema>;
+const replySchema = z.strictObject({ parentCommentId: idSchema('parentCommentId'), body: commentBody }, { error: unknownKeys });
+
+/**
+ * POST /api/revisions/[revisionId]/comments: a new comment anchored to a stage or a check
+ * (`{ anchorKind, anchorId, body }`), or a reply (`{ parentCommentId, body }`, which takes its
+ * thread's anchor). Picking the shape first keeps each message about the shape the caller meant.
+ */
+export const addCommentInputSchema = z.unknown().transform((value, ctx) => {
+  const isReply = value !== null && typeof value === 'object' && 'parentCommentId' in value;
+  const result = (isReply ? replySchema : anchoredCommentSchema).safeParse(value);
+  if (!result.success) {
+    for (const issue of result.error.issues) ctx.addIssue({ code: 'custom', path: issue.path, message: issue.message });
+    return z.NEVER;
+  }
+  return result.data as
+    | { anchorKind: 'stage'; anchorId: (typeof reviewStageIds)[number]; body: string }
+    | { anchorKind: 'check'; anchorId: string; body: string }
+    | { parentCommentId: number; body: string };
+});
+export type AddCommentInput = z.output<typeof addCommentInputSchema>;
 
 /** PATCH /api/reviews/comments/[commentId]: resolve or reopen. */
 export const resolveCommentInputSchema = z.strictObject(

@@ -296,7 +296,7 @@ describe('JSON export → import', () => {
 
     const after = await writeCounts();
     // The second export above is an audit event; nothing else changed.
-    expect({ ...after, audit: after.audit - 1 }).toEqual(before);
+    expect({ ...after, audit: Number(after.audit) - 1 }).toEqual(before);
   });
 
   it('refuses an unknown export format', async () => {
