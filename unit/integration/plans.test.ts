@@ -6,7 +6,7 @@
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { rawQuery, resetTestDatabase } from '@/unit/helpers/test-db';
 import { closeDb, getDb } from '@/db/client';
-import { demoAccounts, seedDemoWorkspace } from '@/db/seed';
+import { seedDemoWorkspace } from '@/db/seed';
 import { memberships, programs, users, workspaces } from '@/db/schema';
 import wearablePatch from '@/lib/engine/demo-plans/wearable-ecg-patch.json';
 import type { Role } from '@/lib/auth/roles';
@@ -269,9 +269,10 @@ describe('PUT /api/plans/[planId] (save with optimistic concurrency)', () => {
     expect(response.status).toBe(409);
     const body = await response.json();
     expect(body.error.code).toBe('stale');
-    expect(body.error.message).toMatch(/^This plan was saved by Eli Ekwueme at .* \(version 2\) after you loaded it; nothing was saved\.$/);
+    expect(body.error.message).toMatch(/^This plan was saved by .+ at .* \(version 2\) after you loaded it; nothing was saved\.$/);
     expect(body.current.version).toBe(2);
-    expect(body.current.updatedByName).toBe(demoAccounts.find((a) => a.role === 'engineer')!.name);
+    const [engineer] = await rawQuery<{ name: string }>('SELECT name FROM users WHERE id = ?', [seeded.userIds.engineer]);
+    expect(body.current.updatedByName).toBe(engineer.name);
     expect(Number.isNaN(Date.parse(body.current.updatedAt))).toBe(false);
     expect(body.current.plan.instrumentation.rgOhm).toBe(12_450);
     const after = await storedPlan(templatePlanId);
