@@ -11,17 +11,13 @@ import { createDatabase, type Database } from '@/db/connection';
 import { getDatabaseEnv } from '@/db/env';
 import { memberships, users, workspaces } from '@/db/schema';
 import { seedWorkspaceData } from '@/db/seed-workspace';
+import { seedReviewData } from '@/db/seed-reviews';
+import { demoAccounts } from '@/db/demo-accounts';
 import type { Role } from '@/lib/auth/roles';
 
 export const demoWorkspace = { slug: 'larkspur', name: 'Larkspur Biosignals' } as const;
 
-/** The demo accounts; the passwords are public demo values, printed by the seed and in the README. */
-export const demoAccounts = [
-  { role: 'admin', email: 'ada.admin@larkspur.example', name: 'Ada Achterberg', password: 'larkspur-admin-1' },
-  { role: 'engineer', email: 'eli.engineer@larkspur.example', name: 'Eli Ekwueme', password: 'larkspur-engineer-1' },
-  { role: 'reviewer', email: 'rhea.reviewer@larkspur.example', name: 'Rhea Rautio', password: 'larkspur-reviewer-1' },
-  { role: 'regulator', email: 'rafe.regulator@larkspur.example', name: 'Rafe Ruiz-Lindqvist', password: 'larkspur-regulator-1' },
-] as const satisfies ReadonlyArray<{ role: Role; email: string; name: string; password: string }>;
+export { demoAccounts } from '@/db/demo-accounts';
 
 export interface SeededWorkspace {
   workspaceId: number;
@@ -67,6 +63,7 @@ if (isMain) {
   seedDemoWorkspace(handle.db)
     .then(async (seeded) => {
       await seedWorkspaceData(handle.db, { workspaceId: seeded.workspaceId, engineerUserId: seeded.userIds.engineer });
+      await seedReviewData(handle.db, { workspaceId: seeded.workspaceId, userIds: seeded.userIds });
       await handle.close();
       console.log(`[seed] workspace "${demoWorkspace.name}" with demo accounts (e-mail / password / role):`);
       for (const account of demoAccounts) console.log(`  ${account.email}  ${account.password}  ${account.role}`);

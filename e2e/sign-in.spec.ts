@@ -23,10 +23,12 @@ test('sign in, follow the callback, then sign out', async ({ page }) => {
   await page.getByLabel('E-mail').fill(engineer.email);
   await page.getByLabel('Password').fill(engineer.password);
   await page.getByRole('button', { name: 'Sign in' }).click();
-  await expect(page).toHaveURL(/\/parts$/);
+  await expect(page).toHaveURL(/\/parts$/, { timeout: 30_000 });
   await expect(page.getByRole('heading', { name: 'Parts' })).toBeVisible();
+  // Sign-out runs in the browser: wait until the page's scripts have loaded.
+  await page.waitForLoadState('networkidle');
   await page.getByRole('button', { name: 'Sign out' }).click();
-  await expect(page).toHaveURL(/\/sign-in/);
+  await expect(page).toHaveURL(/\/sign-in/, { timeout: 30_000 });
   await page.goto('/programs');
   await expect(page).toHaveURL(/\/sign-in\?callbackUrl=/);
 });

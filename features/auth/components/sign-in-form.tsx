@@ -1,7 +1,6 @@
 'use client';
 import { signIn } from 'next-auth/react';
 import Link from 'next/link';
-import { useRouter } from 'next/navigation';
 import { useState, type FormEvent } from 'react';
 import { Field, FormMessage, SubmitButton } from '@/components/ui/form-controls';
 
@@ -19,10 +18,10 @@ export function SignInForm({
   defaultEmail?: string;
   notice?: string;
 }) {
-  const router = useRouter();
   const [error, setError] = useState<string | null>(null);
   const [pending, setPending] = useState(false);
 
+  // The form has method="post": a submit before the scripts load must never put the password in the URL.
   async function onSubmit(event: FormEvent<HTMLFormElement>) {
     event.preventDefault();
     const data = new FormData(event.currentTarget);
@@ -39,12 +38,12 @@ export function SignInForm({
       setError(result?.error && result.error !== 'CredentialsSignin' ? result.error : 'E-mail or password is incorrect');
       return;
     }
-    router.replace(safeCallback(callbackUrl));
-    router.refresh();
+    // A full navigation, so the next page is rendered with the new session cookie from the start.
+    window.location.assign(safeCallback(callbackUrl));
   }
 
   return (
-    <form onSubmit={onSubmit} className="space-y-4" noValidate>
+    <form onSubmit={onSubmit} method="post" className="space-y-4" noValidate>
       {notice ? <FormMessage tone="success">{notice}</FormMessage> : null}
       {error ? <FormMessage tone="error">{error}</FormMessage> : null}
       <Field label="E-mail" name="email" type="email" autoComplete="email" required defaultValue={defaultEmail} maxLength={254} />
