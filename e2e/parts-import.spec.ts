@@ -74,9 +74,10 @@ test.describe('part library import and bench records', () => {
     await expect(comparison).toBeVisible({ timeout: 30_000 });
     const offsetRow = comparison.getByRole('row', { name: /DC offset/ });
     // 20 mV measured, below the plan's worst-case bound: within.
-    await expect(offsetRow).toContainText('20 mV');
+    await expect(offsetRow.getByRole('cell').nth(1)).toHaveText('20 mV');
     await expect(offsetRow).toContainText('within');
-    await expect(comparison.getByRole('row', { name: /in-band noise rms/ })).toContainText('21.2 µV');
+    // A 30 µV cosine has rms 30/√2 = 21.2 µV.
+    await expect(comparison.getByRole('row', { name: /in-band noise rms/ }).getByRole('cell').nth(1)).toHaveText('21.2 µV');
     await expect(page.getByRole('figure', { name: 'Trace referred to input' })).toBeVisible();
     await expect(page.getByRole('figure', { name: 'Amplitude spectral density referred to input' })).toBeVisible();
   });
