@@ -13,7 +13,7 @@ import { ResultViews } from '@/features/plan-workspace/components/result-views';
 import { SaveBar, ConflictPanel, type SaveStatus } from '@/features/plan-workspace/components/save-bar';
 import { useLiveReport } from '@/features/plan-workspace/hooks/use-live-report';
 import { useSavePlan, type SavePlanStale } from '@/features/plan-workspace/api/save-plan';
-import { applyFieldEdit, applyPart, plansEqual, setAt, type PartOption, type PlanDraft } from '@/features/plan-workspace/plan-edit';
+import { applyFieldEdit, applyPart, plansEqual, type PartOption, type PlanDraft } from '@/features/plan-workspace/plan-edit';
 import { fieldKey, findField, stageOfPath, stages, type StageId } from '@/features/plan-workspace/stage-fields';
 import { patchPath } from '@/features/plan-workspace/report-view';
 import { formatDurationMs } from '@/features/plan-workspace/format';
@@ -77,8 +77,24 @@ function Workspace({ planId, initialPlan, initialVersion, canEdit, parts, planNa
       event.preventDefault();
       event.returnValue = '';
     };
+    // Links inside the app navigate without unloading the page: ask before following one.
+    const onClickCapture = (event: MouseEvent) => {
+      if (event.defaultPrevented || event.button !== 0 || event.metaKey || event.ctrlKey || event.shiftKey || event.altKey) return;
+      const anchor = (event.target as Element | null)?.closest?.('a[href]');
+      if (!(anchor instanceof HTMLAnchorElement) || anchor.target === '_blank' || anchor.hasAttribute('download')) return;
+      const url = new URL(anchor.href, window.location.href);
+      if (url.origin !== window.location.origin || (url.pathname === window.location.pathname && url.search === window.location.search)) return;
+      if (!window.confirm('This plan has unsaved changes. Leave the page and lose them?')) {
+        event.preventDefault();
+        event.stopPropagation();
+      }
+    };
     window.addEventListener('beforeunload', onBeforeUnload);
-    return () => window.removeEventListener('beforeunload', onBeforeUnload);
+    document.addEventListener('click', onClickCapture, true);
+    return () => {
+      window.removeEventListener('beforeunload', onBeforeUnload);
+      document.removeEventListener('click', onClickCapture, true);
+    };
   }, [dirty]);
 
   /** Issues by dotted path: the server's (422) and the live validation's. */
@@ -156,9 +172,8 @@ function Workspace({ planId, initialPlan, initialVersion, canEdit, parts, planNa
   const onApplySuggestion = useCallback(
     (path: string, value: number, title: string) => {
       const p = patchPath(path);
-      let next = applyFieldEdit(draftRef.current, p, value);
-      // A suggested Rg replaces a target gain and the other way round (applyFieldEdit does it); other keys are set as given.
-      if (!findField(p)) next = setAt(draftRef.current, p, value);
+      // An ordinary edit: a suggested Rg replaces a target gain and the other way round.
+      const next = applyFieldEdit(draftRef.current, p, value);
       replaceDraft(next, [p, ['instrumentation', 'rgOhm'], ['instrumentation', 'targetGain']]);
       setStatus({ kind: 'info', message: `Applied: ${title}. Not saved yet.` });
       setOpenStage(stageOfPath(p));

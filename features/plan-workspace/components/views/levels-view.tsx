@@ -47,14 +47,14 @@ export function LevelsView({ report }: { report: ChannelReport }) {
     },
   ];
 
-  const window = report.commonModeWindow;
-  const vertices = window.vertices.length > 0 ? [...window.vertices, window.vertices[0]] : [];
+  const cmWindow = report.commonModeWindow;
+  const vertices = cmWindow.vertices.length > 0 ? [...cmWindow.vertices, cmWindow.vertices[0]] : [];
   const windowData: PlotTrace[] = [
     {
       type: 'scatter',
       mode: 'lines',
       fill: 'toself',
-      name: `allowed (Vcm, Vout) for Vd = ${formatEng(window.vdV, 'V')}`,
+      name: `allowed (Vcm, Vout) for Vd = ${formatEng(cmWindow.vdV, 'V')}`,
       x: vertices.map((v) => v.vcmV),
       y: vertices.map((v) => v.voutV),
       line: { color: plotColors.meets },
@@ -141,12 +141,12 @@ export function LevelsView({ report }: { report: ChannelReport }) {
             xaxis: { title: { text: 'Common-mode input Vcm (V)' }, gridcolor: '#e5e7eb' },
             yaxis: { title: { text: 'Output Vout (V)' }, gridcolor: '#e5e7eb' },
             shapes: [
-              ...(window.minV > window.maxV ? [] : [{
+              ...(cmWindow.minV > cmWindow.maxV ? [] : [{
                 type: 'rect',
                 xref: 'x',
                 yref: 'paper',
-                x0: window.minV,
-                x1: window.maxV,
+                x0: cmWindow.minV,
+                x1: cmWindow.maxV,
                 y0: 0,
                 y1: 1,
                 line: { width: 0 },
@@ -162,9 +162,9 @@ export function LevelsView({ report }: { report: ChannelReport }) {
                 showarrow: false,
                 xanchor: 'left',
                 text:
-                  window.minV <= window.maxV
-                    ? `Vcm allowed ${formatEng(window.minV, 'V')} … ${formatEng(window.maxV, 'V')} at Vd = ${formatEng(window.vdV, 'V')} (shaded)`
-                    : `No common-mode voltage is allowed at Vd = ${formatEng(window.vdV, 'V')}: the stage saturates`,
+                  cmWindow.minV <= cmWindow.maxV
+                    ? `Vcm allowed ${formatEng(cmWindow.minV, 'V')} … ${formatEng(cmWindow.maxV, 'V')} at Vd = ${formatEng(cmWindow.vdV, 'V')} (shaded)`
+                    : `No common-mode voltage is allowed at Vd = ${formatEng(cmWindow.vdV, 'V')}: the stage saturates`,
                 font: { size: 11, color: plotColors.inkSoft },
               },
             ],
