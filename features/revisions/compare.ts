@@ -172,3 +172,26 @@ export function compareRevisions(
     checks: diffChecks(older.report.checks ?? [], newer.report.checks ?? []),
   };
 }
+
+/** The headline results of one report as label and text (the revision page's summary table). */
+export function headlineRowsOf(report: ChannelReport): { id: string; label: string; text: string }[] {
+  return headlineResults.map(({ id, label, read }) => {
+    const value = readSafely(read, report);
+    return { id, label, text: value === null ? '—' : formatValue(value, unitForFieldName(lastSegment(id))) };
+  });
+}
+
+/** Every check of one report with its value, limit and verdict as text. */
+export function checkRowsOf(report: ChannelReport) {
+  return (report.checks ?? []).map((check) => {
+    const unit = unitForCheckUnit(check.unit);
+    return {
+      id: check.id,
+      title: check.title,
+      valueText: formatValue(check.value, unit),
+      limitText: `${check.sense === 'atMost' ? '≤' : '≥'} ${formatValue(check.limit, unit)}`,
+      verdict: check.verdict,
+      stageId: check.stageId,
+    };
+  });
+}
