@@ -3,7 +3,7 @@
  * The result views as tabs (Levels, Noise, Mains, Response, Waveforms, Tolerance, Checks), with
  * the cautions always visible above them. Arrow keys move between tabs (WAI-ARIA tabs pattern).
  */
-import { useRef, useState, type KeyboardEvent } from 'react';
+import { memo, useRef, useState, type KeyboardEvent } from 'react';
 import type { ChannelPlan } from '@/lib/engine/plan';
 import type { ChannelReport } from '@/lib/engine/report';
 import type { StageId } from '@/features/plan-workspace/stage-fields';
@@ -30,7 +30,11 @@ interface ResultViewsProps {
   onApplySuggestion: (path: string, value: number, title: string) => void;
 }
 
-export function ResultViews({ report, plan, canEdit, onOpenStage, onApplySuggestion }: ResultViewsProps) {
+/**
+ * Memoised: the views (and their Plotly figures) re-render only when a new report arrives, not
+ * on every keystroke in a stage form.
+ */
+export const ResultViews = memo(function ResultViews({ report, plan, canEdit, onOpenStage, onApplySuggestion }: ResultViewsProps) {
   const [active, setActive] = useState<Tab>('Levels');
   const refs = useRef<Record<string, HTMLButtonElement | null>>({});
   const counts = verdictCounts(report.checks);
@@ -110,4 +114,4 @@ export function ResultViews({ report, plan, canEdit, onOpenStage, onApplySuggest
       </div>
     </section>
   );
-}
+});

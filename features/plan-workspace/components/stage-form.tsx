@@ -203,7 +203,10 @@ function FieldInput({
   const message = (errors[key]?.message as string | undefined) ?? issues[dotted];
   const derived = derivedHint(field, plan);
   const hint = [field.hint, derived].filter(Boolean).join(' · ');
-  const describedBy = [message ? errorId : null, hint ? hintId : null].filter(Boolean).join(' ') || undefined;
+  const unitId = `${id}-unit`;
+  const unitText = field.kind === 'quantity' ? field.symbol : field.kind === 'percent' ? '%' : field.kind === 'number' ? (field.suffix ?? '') : '';
+  // The unit is described rather than part of the label, so the accessible name is exactly the label ("Gain resistance Rg").
+  const describedBy = [message ? errorId : null, hint ? hintId : null, unitText ? unitId : null].filter(Boolean).join(' ') || undefined;
   const inputClass = `mt-1 w-full rounded border px-2 py-1.5 text-sm ${message ? 'border-verdict-fails ring-1 ring-verdict-fails' : 'border-slate-300'}`;
 
   if (field.kind === 'boolean') {
@@ -218,12 +221,21 @@ function FieldInput({
   }
   return (
     <div>
-      <label htmlFor={id} className="block text-sm font-medium text-ink">
-        {field.label}
-        {field.kind === 'quantity' && <span className="ml-1 font-normal text-ink-soft">({field.symbol})</span>}
-        {field.kind === 'percent' && <span className="ml-1 font-normal text-ink-soft">(%)</span>}
-        {field.kind === 'number' && field.suffix && <span className="ml-1 font-normal text-ink-soft">({field.suffix})</span>}
-      </label>
+      <div className="flex items-baseline gap-1 text-sm">
+        <label htmlFor={id} className="font-medium text-ink">
+          {field.label}
+        </label>
+        {unitText && (
+          <span aria-hidden="true" className="text-ink-soft">
+            ({unitText})
+          </span>
+        )}
+      </div>
+      {unitText && (
+        <span id={unitId} className="sr-only">
+          unit {unitText}
+        </span>
+      )}
       {field.kind === 'select' ? (
         <select id={id} className={inputClass} aria-invalid={message ? true : undefined} aria-describedby={describedBy} {...register(key)}>
           {field.options.map((o) => (
