@@ -1,6 +1,6 @@
 'use client';
 import { useActionState } from 'react';
-import { Field, FormMessage, SubmitButton } from '@/components/ui/form-controls';
+import { Field, FormMessage, SubmitButton } from '@/features/ui/form-controls';
 import type { FormState } from '@/lib/auth/form-state';
 
 type Action = (previous: FormState<'email'>, formData: FormData) => Promise<FormState<'email'>>;

@@ -1,7 +1,7 @@
 'use client';
 import Link from 'next/link';
 import { useActionState } from 'react';
-import { Field, FormMessage, SubmitButton } from '@/components/ui/form-controls';
+import { Field, FormMessage, SubmitButton } from '@/features/ui/form-controls';
 import type { FormState } from '@/lib/auth/form-state';
 
 type FieldName = 'name' | 'password' | 'confirmPassword' | 'token';

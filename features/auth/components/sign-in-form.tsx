@@ -2,7 +2,7 @@
 import { signIn } from 'next-auth/react';
 import Link from 'next/link';
 import { useState, type FormEvent } from 'react';
-import { Field, FormMessage, SubmitButton } from '@/components/ui/form-controls';
+import { Field, FormMessage, SubmitButton } from '@/features/ui/form-controls';
 
 /** Only same-site paths are followed after sign-in (no open redirect). */
 function safeCallback(callbackUrl: string | undefined): string {

@@ -1,6 +1,6 @@
 'use client';
 import { useActionState } from 'react';
-import { Field, FormMessage, SelectField, SubmitButton } from '@/components/ui/form-controls';
+import { Field, FormMessage, SelectField, SubmitButton } from '@/features/ui/form-controls';
 import type { FormState } from '@/lib/auth/form-state';
 import { roleLabels, roles } from '@/lib/auth/roles';
 
