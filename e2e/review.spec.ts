@@ -75,7 +75,7 @@ test('the reviewer follows the e-mailed link, comments on the high-pass stage an
   await commentForm.getByLabel('Comment on').selectOption('stage:high-pass');
   await commentForm.getByLabel('Comment', { exact: true }).fill('15 Hz second order keeps motion artefacts out; fine for surface EMG.');
   await commentForm.getByRole('button', { name: 'Add comment' }).click();
-  const thread = page.getByRole('listitem').filter({ hasText: '15 Hz second order keeps motion artefacts out' });
+  const thread = page.getByRole('region', { name: /^Comments/ }).getByRole('listitem').filter({ hasText: '15 Hz second order keeps motion artefacts out' });
   await expect(thread).toBeVisible();
   await expect(thread).toContainText('High-pass');
 
@@ -106,7 +106,13 @@ test('the regulator sees the released revision, downloads its PDF and finds no w
   // Read-only: no form, no text field, no button that writes.
   await expect(page.getByRole('form')).toHaveCount(0);
   await expect(page.getByRole('textbox')).toHaveCount(0);
-  await expect(page.getByRole('button', { name: /freeze|request|sign|comment|reply|resolve|reopen/i })).toHaveCount(0);
+  for (const name of ['Sign', 'Add comment', 'Reply', 'Resolve', 'Reopen', 'Send review request']) {
+    await expect(page.getByRole('button', { name, exact: true })).toHaveCount(0);
+  }
+  await expect(page.getByRole('button', { name: /^Freeze revision/ })).toHaveCount(0);
+  // What remains is reading: the two downloads and signing out.
+  const buttons = await page.getByRole('button').allTextContents();
+  expect(buttons.map((b) => b.trim()).sort()).toEqual(['Download JSON', 'Download PDF rationale', 'Sign out']);
   await page.context().close();
 });
 
