@@ -1,10 +1,10 @@
 import 'server-only';
-import { and, desc, eq, isNull, sql } from 'drizzle-orm';
+import { and, desc, eq, inArray, isNull, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/mysql-core';
 import { getDb } from '@/db/client';
 import type { Executor } from '@/db/connection';
 import { insertAuditEvent } from '@/db/queries/audit-events';
-import { channelPlans, programs, users } from '@/db/schema';
+import { channelPlans, planRevisions, programs, revisionStateValues, users } from '@/db/schema';
 
 export type WorstVerdict = 'meets' | 'marginal' | 'fails';
 
@@ -32,6 +32,8 @@ export interface PlanSummary {
   createdAt: Date;
   updatedAt: Date;
   updatedByName: string;
+  /** The plan's newest revision (label and state), null before the first freeze. Set by `listPlans`. */
+  latestRevision?: { label: string; state: (typeof revisionStateValues)[number] } | null;
 }
 
 /** One plan with its bodies. */
@@ -93,12 +95,26 @@ export async function listPlans({
   includeArchived?: boolean;
 }): Promise<PlanSummary[]> {
   const scope = and(eq(channelPlans.workspaceId, workspaceId), eq(channelPlans.programId, programId));
-  return getDb()
+  const rows = await getDb()
     .select(summaryColumns)
     .from(channelPlans)
     .innerJoin(updatedBy, eq(updatedBy.id, channelPlans.updatedByUserId))
     .where(includeArchived ? scope : and(scope, isNull(channelPlans.archivedAt)))
     .orderBy(desc(channelPlans.updatedAt), desc(channelPlans.id));
+  if (rows.length === 0) return rows;
+  const revisions = await getDb()
+    .select({ planId: planRevisions.planId, sequence: planRevisions.sequence, label: planRevisions.label, state: planRevisions.state })
+    .from(planRevisions)
+    .where(and(eq(planRevisions.workspaceId, workspaceId), inArray(planRevisions.planId, rows.map((row) => row.id))));
+  const latest = new Map<number, (typeof revisions)[number]>();
+  for (const revision of revisions) {
+    const seen = latest.get(revision.planId);
+    if (!seen || revision.sequence > seen.sequence) latest.set(revision.planId, revision);
+  }
+  return rows.map((row) => {
+    const revision = latest.get(row.id);
+    return { ...row, latestRevision: revision ? { label: revision.label, state: revision.state } : null };
+  });
 }
 
 /** The plan if it belongs to the workspace, else null. */

@@ -196,6 +196,8 @@ export function storedAnalysis(result: Extract<BenchAnalysisResult, { ok: true }
 /** The comparison rows in the shape the design-rationale export takes. */
 export interface BenchExportRow {
   quantity: string;
+  /** Every compared quantity is a voltage referred to input. */
+  unit: 'V';
   predicted: number;
   measured: number;
   ratio: number | null;
@@ -204,7 +206,7 @@ export interface BenchExportRow {
 
 /** Comparison rows → the export's rows (label as the quantity; `within` true only for the verdict "within"). */
 export function toExportRows(rows: readonly ComparisonRow[]): BenchExportRow[] {
-  return rows.map((r) => ({ quantity: r.label, predicted: r.predicted, measured: r.measured, ratio: r.ratio, within: r.verdict === 'within' }));
+  return rows.map((r) => ({ quantity: r.label, unit: 'V' as const, predicted: r.predicted, measured: r.measured, ratio: r.ratio, within: r.verdict === 'within' }));
 }
 
 /**

@@ -1,6 +1,8 @@
 /** Channel plans as they travel to the browser (dates as ISO strings, ids as strings). */
 import type { Verdict } from '@/lib/engine/report';
 
+export type PlanState = 'draft' | 'in-review' | 'released' | 'changes-requested' | 'superseded';
+
 export interface PlanSummaryDto {
   id: string;
   programId: string;
@@ -9,10 +11,10 @@ export interface PlanSummaryDto {
   application: string;
   worstVerdict: Verdict | null;
   version: number;
-  /** Revisions do not exist yet: always null ("—" in tables). */
+  /** Label of the newest revision (A, B, …), null before the first freeze ("—" in tables). */
   revision: string | null;
-  /** Lifecycle state of the editable plan; revisions will carry in review / released. */
-  state: 'draft';
+  /** State of the newest revision, or 'draft' when the plan has never been frozen. */
+  state: PlanState;
   archivedAt: string | null;
   createdAt: string;
   updatedAt: string;
@@ -49,6 +51,7 @@ type SummaryRow = {
   createdAt: Date;
   updatedAt: Date;
   updatedByName: string;
+  latestRevision?: { label: string; state: PlanState } | null;
 };
 
 export function toPlanSummaryDto(row: SummaryRow): PlanSummaryDto {
@@ -60,8 +63,8 @@ export function toPlanSummaryDto(row: SummaryRow): PlanSummaryDto {
     application: row.application,
     worstVerdict: row.worstVerdict,
     version: row.version,
-    revision: null,
-    state: 'draft',
+    revision: row.latestRevision?.label ?? null,
+    state: row.latestRevision?.state ?? 'draft',
     archivedAt: row.archivedAt ? row.archivedAt.toISOString() : null,
     createdAt: row.createdAt.toISOString(),
     updatedAt: row.updatedAt.toISOString(),

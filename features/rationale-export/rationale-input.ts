@@ -92,8 +92,8 @@ export const benchRowSchema = z.object({
   unit: text('bench unit', 20).optional(),
   predicted: finiteNumber('predicted value'),
   measured: finiteNumber('measured value'),
-  /** measured ÷ predicted. */
-  ratio: finiteNumber('measured/predicted ratio'),
+  /** measured ÷ predicted; null when nothing was predicted. */
+  ratio: finiteNumber('measured/predicted ratio').nullable(),
   /** Whether the measurement is within the stated agreement band. */
   within: z.boolean({ error: 'bench "within" flag must be true or false' }),
 });

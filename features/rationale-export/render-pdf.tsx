@@ -707,8 +707,8 @@ function BenchSection(props: { data: RationaleInput }) {
               b.quantity,
               eng(b.predicted, b.unit ?? ''),
               eng(b.measured, b.unit ?? ''),
-              eng(b.ratio, '', 3),
-              { text: b.within ? 'within' : 'outside', verdict: b.within ? 'meets' : 'fails' },
+              b.ratio === null ? '—' : eng(b.ratio, '', 3),
+              b.ratio === null ? 'no prediction' : { text: b.within ? 'within' : 'outside', verdict: b.within ? 'meets' : 'fails' },
             ])}
           />
         </View>

@@ -6,18 +6,19 @@
  * - One request for changes decides the review (changes requested); otherwise the revision is
  *   released once every requested reviewer has approved.
  */
-import type { Role } from '@/lib/auth/roles';
+import { canCommentOnReview, canDecideReview } from '@/lib/auth/permissions';
+import { roles, type Role } from '@/lib/auth/roles';
 
 /** Roles that may be asked to review and sign. */
-export const reviewerRoles: readonly Role[] = ['reviewer', 'admin'];
+export const reviewerRoles: readonly Role[] = roles.filter((role) => canDecideReview({ role }));
 
 export function isEligibleReviewerRole(role: Role): boolean {
-  return reviewerRoles.includes(role);
+  return canDecideReview({ role });
 }
 
 /** Comments and replies: everyone but the regulator (who never writes). */
 export function canComment(role: Role): boolean {
-  return role !== 'regulator';
+  return canCommentOnReview({ role });
 }
 
 export type ReviewOutcome = 'pending' | 'approved' | 'changes-requested';

@@ -42,14 +42,21 @@ export function canRequestReview(actor: Actor): boolean {
   return isOneOf(actor, ['admin', 'engineer']);
 }
 
-/** Comment on a stage of a revision under review. */
+/**
+ * Comment on a stage or check of a revision, reply and resolve: every role that writes (the
+ * author answers the reviewer's comments in the same thread).
+ */
 export function canCommentOnReview(actor: Actor): boolean {
-  return isOneOf(actor, ['reviewer']);
+  return isOneOf(actor, ['admin', 'engineer', 'reviewer']);
 }
 
-/** Approve, or ask for changes on, a revision under review (with re-entered password). */
+/**
+ * Be chosen as a reviewer and approve, or ask for changes on, a revision under review (with
+ * re-entered password). Admins may review too (a small team's lead often signs); the author and
+ * the requester of a review never sign it (features/reviews/review-rules.ts).
+ */
 export function canDecideReview(actor: Actor): boolean {
-  return isOneOf(actor, ['reviewer']);
+  return isOneOf(actor, ['reviewer', 'admin']);
 }
 
 /** Read drafts, revisions in any state, part libraries and bench records: everything in the workspace. */

@@ -2,16 +2,16 @@ import { describe, expect, it } from 'vitest';
 import * as permissions from '@/lib/auth/permissions';
 import { roles, type Role } from '@/lib/auth/roles';
 
-// Written out by hand from the product's roles table (admin = engineer + members; reviewer reads,
-// comments and decides; regulator reads released work, review record and audit trail, exports).
+// Written out by hand from the product's roles table (admin = engineer + members, and may sign a review;
+// reviewer reads, comments and decides; engineers answer comments; regulator reads released work, review record and audit trail, exports).
 const table: Record<string, Role[]> = {
   canManageMembers: ['admin'],
   canEditPlans: ['admin', 'engineer'],
   canEditParts: ['admin', 'engineer'],
   canUploadBenchRecords: ['admin', 'engineer'],
   canRequestReview: ['admin', 'engineer'],
-  canCommentOnReview: ['reviewer'],
-  canDecideReview: ['reviewer'],
+  canCommentOnReview: ['admin', 'engineer', 'reviewer'],
+  canDecideReview: ['reviewer', 'admin'],
   canReadWorkInProgress: ['admin', 'engineer', 'reviewer'],
   canReadReleased: ['admin', 'engineer', 'reviewer', 'regulator'],
   canReadAuditTrail: ['admin', 'engineer', 'reviewer', 'regulator'],

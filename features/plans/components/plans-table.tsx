@@ -85,7 +85,7 @@ export function PlansTable({
         header: 'Application',
       }),
       column.accessor((row) => row.revision ?? '—', { id: 'revision', header: 'Revision', enableGlobalFilter: false }),
-      column.accessor((row) => (row.archivedAt ? 'draft (archived)' : row.state), { id: 'state', header: 'State' }),
+      column.accessor((row) => `${row.state.replace('-', ' ')}${row.archivedAt ? ' (archived)' : ''}`, { id: 'state', header: 'State' }),
       column.accessor('worstVerdict', {
         header: 'Worst verdict',
         sortingFn: (a, b) =>

@@ -15,6 +15,7 @@ export interface ShellMember {
 export function AppShell({ member, children }: { member: ShellMember; children: ReactNode }) {
   const items: NavItem[] = [
     { href: '/programs', label: 'Programs' },
+    { href: '/released', label: 'Released' },
     { href: '/parts', label: 'Parts' },
     ...(canManageMembers(member) ? [{ href: '/members', label: 'Members' }] : []),
   ];

@@ -1,7 +1,7 @@
 import 'server-only';
 import type { ReviewRecord } from '@/db/queries/reviews';
 import type { RevisionDetail } from '@/db/queries/revisions';
-import type { RationaleInputData } from '@/features/rationale-export/rationale-input';
+import type { BenchRow as RationaleBenchRow, RationaleInputData } from '@/features/rationale-export/rationale-input';
 
 /** The plain data the design-rationale renderers take, from a stored revision and its review record. */
 export function rationaleDataFor(
@@ -9,6 +9,7 @@ export function rationaleDataFor(
   review: ReviewRecord,
   generatedBy: { name: string },
   generatedAt = new Date(),
+  bench?: { rows: RationaleBenchRow[]; record: { fileName: string; channel: string; uploadedAt: string } },
 ): RationaleInputData {
   const reviewerNames = new Map<number, { name: string; role: string }>();
   for (const request of review.requests) for (const r of request.reviewers) reviewerNames.set(r.userId, { name: r.name, role: r.role ?? 'former member' });
@@ -43,6 +44,7 @@ export function rationaleDataFor(
         contentHash: s.contentHash,
       })),
     },
+    ...(bench ? { bench: { recordName: `${bench.record.fileName} (channel ${bench.record.channel}, uploaded ${bench.record.uploadedAt.replace("T", " ").slice(0, 16)} UTC)`, rows: bench.rows } } : {}),
     generatedAt,
     generatedByName: generatedBy.name,
   };

@@ -2,6 +2,7 @@ import { NextResponse } from 'next/server';
 import { getReviewRecord } from '@/db/queries/reviews';
 import { recordRevisionExport } from '@/db/queries/revisions';
 import { AppError, errorResponse } from '@/features/auth/errors';
+import { getBenchExportForRevision } from '@/features/bench/bench-export';
 import { parseIdParam } from '@/app/api/programs/_shared/request';
 import { rationaleJsonText, toRationaleJson } from '@/features/rationale-export/json-export';
 import { renderRationalePdf } from '@/features/rationale-export/render-pdf';
@@ -33,7 +34,8 @@ export async function GET(request: Request, context: Context) {
     const { member, revision } = await loadReadableRevision(revisionId);
     if (!canExport(member)) throw new AppError('forbidden', 'Your role cannot export.');
     const review = await getReviewRecord({ workspaceId: member.workspaceId, revisionId });
-    const data = rationaleDataFor(revision, review, { name: member.name });
+    const bench = await getBenchExportForRevision({ workspaceId: member.workspaceId, revisionId });
+    const data = rationaleDataFor(revision, review, { name: member.name }, new Date(), bench);
 
     let body: Uint8Array | string;
     let contentType: string;

@@ -1,5 +1,4 @@
 import type { Metadata } from 'next';
-import Link from 'next/link';
 import { notFound, redirect } from 'next/navigation';
 import { listParts } from '@/db/queries/parts';
 import { getPlanById } from '@/db/queries/plans';
@@ -8,6 +7,7 @@ import { PlanWorkspace } from '@/features/plan-workspace/components/plan-workspa
 import { toPartOptionDto } from '@/features/plans/types';
 import { canEditPlans, canReadWorkInProgress } from '@/lib/auth/permissions';
 import type { ChannelPlan } from '@/lib/engine/plan';
+import { PlanNav } from './_shared/plan-nav';
 
 export const metadata: Metadata = { title: 'Channel plan' };
 export const dynamic = 'force-dynamic';
@@ -26,16 +26,7 @@ export default async function PlanPage({ params }: { params: Promise<{ programId
   if (!plan || plan.programId !== programId) notFound();
 
   const breadcrumb = (
-    <nav aria-label="Breadcrumb" className="text-sm text-ink-soft">
-      <Link href="/programs" className="underline-offset-2 hover:underline">
-        Programs
-      </Link>{' '}
-      /{' '}
-      <Link href={`/programs/${programId}`} className="underline-offset-2 hover:underline">
-        {plan.programName}
-      </Link>{' '}
-      / <span aria-current="page">{plan.name}</span>
-    </nav>
+    <PlanNav programId={programId} planId={planId} programName={plan.programName} planName={plan.name} current="Workspace" showWorkspace={canReadWorkInProgress(member)} />
   );
 
   if (!canReadWorkInProgress(member)) {

@@ -1,10 +1,11 @@
 import type { Metadata } from 'next';
-import Link from 'next/link';
 import { notFound, redirect } from 'next/navigation';
 import { getPlanHeadingForBench, listRevisionsForBench } from '@/db/queries/bench-records';
 import { getCurrentMember } from '@/features/auth/guard';
 import { canReadBenchRecords, canWriteBenchRecords } from '@/features/bench/access';
 import { BenchWorkspace } from '@/features/bench/components/bench-workspace';
+import { canReadWorkInProgress } from '@/lib/auth/permissions';
+import { PlanNav } from '@/app/(app)/programs/[programId]/plans/[planId]/_shared/plan-nav';
 
 export const metadata: Metadata = { title: 'Bench records' };
 export const dynamic = 'force-dynamic';
@@ -19,14 +20,10 @@ export default async function BenchPage({ params }: { params: Promise<{ programI
   const plan = await getPlanHeadingForBench({ workspaceId: member.workspaceId, planId: Number(planId) });
   if (!plan || String(plan.programId) !== programId) notFound();
   const revisions = (await listRevisionsForBench({ workspaceId: member.workspaceId, planId: plan.id })).filter((r) => canReadBenchRecords(member, r));
-  const planHref = `/programs/${programId}/plans/${planId}`;
   return (
     <section aria-labelledby="bench-heading" className="space-y-6">
       <div>
-        <p className="text-sm text-ink-soft">
-          <Link href={`/programs/${programId}`} className="underline">{plan.programName}</Link> ›{' '}
-          <Link href={planHref} className="underline">{plan.name}</Link>
-        </p>
+        <PlanNav programId={plan.programId} planId={plan.id} programName={plan.programName} planName={plan.name} current="Bench records" showWorkspace={canReadWorkInProgress(member)} />
         <h1 id="bench-heading" className="text-2xl font-semibold">Bench records</h1>
         <p className="mt-1 text-ink-soft">Recordings from the prototype, attached to a revision, against what that revision predicted.</p>
       </div>

@@ -4,8 +4,8 @@ import { HistoryTable } from '@/features/history/components/history-table';
 import { toHistoryEntry } from '@/features/history/history-entry';
 import { releasedStates } from '@/features/revisions/revision-states';
 import { canReadWorkInProgress } from '@/lib/auth/permissions';
-import { loadPlanPage } from '@/app/(app)/programs/[programId]/plans/[planId]/revisions/_shared/load-plan';
-import { PlanNav } from '@/app/(app)/programs/[programId]/plans/[planId]/revisions/_shared/plan-nav';
+import { loadPlanPage } from '@/app/(app)/programs/[programId]/plans/[planId]/_shared/load-plan';
+import { PlanNav } from '@/app/(app)/programs/[programId]/plans/[planId]/_shared/plan-nav';
 
 export const metadata: Metadata = { title: 'History' };
 export const dynamic = 'force-dynamic';

@@ -6,8 +6,8 @@ import { StateBadge, VerdictText } from '@/features/revisions/components/state-b
 import { maxRevisionSequence, revisionLabel } from '@/features/revisions/revision-label';
 import { releasedStates } from '@/features/revisions/revision-states';
 import { canEditPlans, canReadWorkInProgress } from '@/lib/auth/permissions';
-import { loadPlanPage } from './_shared/load-plan';
-import { PlanNav } from './_shared/plan-nav';
+import { loadPlanPage } from '@/app/(app)/programs/[programId]/plans/[planId]/_shared/load-plan';
+import { PlanNav } from '@/app/(app)/programs/[programId]/plans/[planId]/_shared/plan-nav';
 
 export const metadata: Metadata = { title: 'Revisions' };
 export const dynamic = 'force-dynamic';

@@ -17,8 +17,8 @@ import { planningAidCaution } from '@/lib/cautions';
 import { canReadWorkInProgress, canRequestReview, canWriteAnything } from '@/lib/auth/permissions';
 import { roleLabels } from '@/lib/auth/roles';
 import type { ChannelReport } from '@/lib/engine/report';
-import { loadPlanPage, parseId } from '@/app/(app)/programs/[programId]/plans/[planId]/revisions/_shared/load-plan';
-import { PlanNav } from '@/app/(app)/programs/[programId]/plans/[planId]/revisions/_shared/plan-nav';
+import { loadPlanPage, parseId } from '@/app/(app)/programs/[programId]/plans/[planId]/_shared/load-plan';
+import { PlanNav } from '@/app/(app)/programs/[programId]/plans/[planId]/_shared/plan-nav';
 
 export const metadata: Metadata = { title: 'Revision' };
 export const dynamic = 'force-dynamic';

@@ -5,8 +5,8 @@ import { VerdictText } from '@/features/revisions/components/state-badge';
 import { releasedStates } from '@/features/revisions/revision-states';
 import { canReadWorkInProgress } from '@/lib/auth/permissions';
 import type { ChannelReport } from '@/lib/engine/report';
-import { loadPlanPage, parseId } from '@/app/(app)/programs/[programId]/plans/[planId]/revisions/_shared/load-plan';
-import { PlanNav } from '@/app/(app)/programs/[programId]/plans/[planId]/revisions/_shared/plan-nav';
+import { loadPlanPage, parseId } from '@/app/(app)/programs/[programId]/plans/[planId]/_shared/load-plan';
+import { PlanNav } from '@/app/(app)/programs/[programId]/plans/[planId]/_shared/plan-nav';
 
 export const metadata: Metadata = { title: 'Compare revisions' };
 export const dynamic = 'force-dynamic';

@@ -1,6 +1,6 @@
 import Link from 'next/link';
 
-/** Breadcrumb and the plan's sub-navigation (workspace, revisions, history). */
+/** Breadcrumb and the plan's sub-navigation (workspace, revisions, compare, history, bench records). */
 export function PlanNav({
   programId,
   planId,
@@ -58,6 +58,9 @@ export function PlanNav({
         </Link>
         <Link href={`${base}/history`} className="text-copper-dark underline-offset-2 hover:underline">
           History
+        </Link>
+        <Link href={`${base}/bench`} className="text-copper-dark underline-offset-2 hover:underline">
+          Bench records
         </Link>
       </nav>
     </div>
