@@ -26,6 +26,7 @@ const revisionRecords = await import('@/app/api/revisions/[revisionId]/bench-rec
 const comparisonRoute = await import('@/app/api/revisions/[revisionId]/bench-records/comparison/route');
 const recordRoute = await import('@/app/api/bench-records/[recordId]/route');
 const withdrawRoute = await import('@/app/api/bench-records/[recordId]/withdraw/route');
+const exportRoute = await import('@/app/api/revisions/[revisionId]/export/route');
 
 let seeded: Awaited<ReturnType<typeof seedDemoWorkspace>>;
 let draftRevisionId: number;
@@ -258,7 +259,7 @@ describe('reading, withdrawing and the export rows', () => {
     const first = await (await comparisonRoute.GET(new Request('http://test.invalid/api'), revisionCtx(draftRevisionId))).json();
     expect(first.bench.record.id).toBe(edfRecordId);
     expect(first.bench.rows).toHaveLength(4);
-    for (const row of first.bench.rows) expect(Object.keys(row).sort()).toEqual(['measured', 'predicted', 'quantity', 'ratio', 'within']);
+    for (const row of first.bench.rows) expect(Object.keys(row).sort()).toEqual(['measured', 'predicted', 'quantity', 'ratio', 'unit', 'within']);
     const offsetRow = first.bench.rows.find((r: { quantity: string }) => /offset/i.test(r.quantity));
     expect(offsetRow.measured / dcV).toBeCloseTo(1, 3);
     expect(offsetRow.within).toBe(true);
@@ -278,6 +279,21 @@ describe('reading, withdrawing and the export rows', () => {
     expect(after.bench.record.id).toBe(csvRecordId);
     const none = await (await comparisonRoute.GET(new Request('http://test.invalid/api'), revisionCtx(releasedRevisionId))).json();
     expect(none.bench).toBeNull();
+  });
+
+  it('the design-rationale export carries the newest bench comparison, and says so when there is none', async () => {
+    signInAs('reviewer');
+    const exported = await exportRoute.GET(new Request('http://test.invalid/api?format=json'), revisionCtx(draftRevisionId));
+    expect(exported.status).toBe(200);
+    const doc = JSON.parse(await exported.text());
+    const comparison = await (await comparisonRoute.GET(new Request('http://test.invalid/api'), revisionCtx(draftRevisionId))).json();
+    // The EDF record was withdrawn above: the CSV record's rows are the ones exported.
+    expect(doc.bench.recordName).toMatch(/^bench-run-1\.csv \(channel .+, uploaded \d{4}-\d\d-\d\d \d\d:\d\d UTC\)$/);
+    expect(doc.bench.rows).toEqual(comparison.bench.rows);
+    expect(doc.bench.rows.every((r: { unit: string }) => r.unit === 'V')).toBe(true);
+
+    const released = JSON.parse(await (await exportRoute.GET(new Request('http://test.invalid/api?format=json'), revisionCtx(releasedRevisionId))).text());
+    expect(released.bench).toBeUndefined();
   });
 
   it('the database keeps records: raw DELETE and content UPDATE are refused', async () => {

@@ -5,6 +5,8 @@ import { closeDb, getDb } from '@/db/client';
 import { seedDemoWorkspace } from '@/db/seed';
 import { seedReviewData } from '@/db/seed-reviews';
 import { seedWorkspaceData } from '@/db/seed-workspace';
+import { listPlans } from '@/db/queries/plans';
+import { toPlanSummaryDto } from '@/features/plans/types';
 import { contentHash } from '@/features/rationale-export/content-hash';
 import { asJson, writeCounts } from '@/unit/integration/revisions-fixtures';
 
@@ -28,6 +30,18 @@ describe('demo revisions', () => {
     ]);
     const signatures = await rawQuery<{ signer_user_id: number; meaning: string }>('SELECT signer_user_id, meaning FROM review_signatures');
     expect(signatures).toEqual([{ signer_user_id: seeded.userIds.reviewer, meaning: 'approved' }]);
+  });
+
+  it("show in their program's plan table as the plan's newest revision and its state", async () => {
+    const plans = await rawQuery<{ id: number; program_id: number; name: string }>('SELECT id, program_id, name FROM channel_plans');
+    const byName = new Map(plans.map((p) => [p.name, p]));
+    const row = async (name: string) => {
+      const plan = byName.get(name)!;
+      const list = await listPlans({ workspaceId: seeded.workspaceId, programId: plan.program_id });
+      return toPlanSummaryDto(list.find((p) => p.id === plan.id)!);
+    };
+    expect(await row('Larkspur 12-lead diagnostic cart front end')).toMatchObject({ revision: 'A', state: 'released' });
+    expect(await row('Larkspur two-lead wearable ECG patch')).toMatchObject({ revision: 'A', state: 'in-review' });
   });
 
   it('carry the content hash the app computes for their plan and report', async () => {

@@ -27,6 +27,7 @@ const revisionHistoryRoute = await import('@/app/api/revisions/[revisionId]/hist
 const exportRoute = await import('@/app/api/revisions/[revisionId]/export/route');
 const importRoute = await import('@/app/api/programs/[programId]/plans/import/route');
 const planRoute = await import('@/app/api/plans/[planId]/route');
+const programPlansRoute = await import('@/app/api/programs/[programId]/plans/route');
 
 let seeded: Awaited<ReturnType<typeof seedDemoWorkspace>>;
 let planId: number;
@@ -123,6 +124,19 @@ describe('freezing a revision', () => {
     revisionB = (await response.json()).revision;
     expect(revisionB.label).toBe('B');
     expect(revisionB.contentHash).not.toBe(revisionA.contentHash);
+  });
+
+  it("the program's plan table shows the newest revision and its state; a plan never frozen shows none", async () => {
+    as('reviewer');
+    const response = await programPlansRoute.GET(jsonRequest('GET', `/api/programs/${programId}/plans`), params({ programId: String(programId) }));
+    expect(response.status).toBe(200);
+    const { plans } = (await response.json()) as { plans: { id: string; revision: string | null; state: string }[] };
+    expect(plans.find((p) => p.id === String(planId))).toMatchObject({ revision: 'B', state: 'draft' });
+    const [other] = await rawQuery<{ id: number }>(
+      'SELECT p.id FROM channel_plans p WHERE p.program_id = ? AND p.id <> ? AND NOT EXISTS (SELECT 1 FROM plan_revisions r WHERE r.plan_id = p.id) LIMIT 1',
+      [programId, planId],
+    );
+    if (other) expect(plans.find((p) => p.id === String(other.id))).toMatchObject({ revision: null, state: 'draft' });
   });
 
   it('refuses a stale plan version, a missing summary and unknown fields, changing nothing', async () => {
