@@ -18,7 +18,7 @@ export type DisplayUnit =
  */
 export function unitForFieldName(name: string): DisplayUnit {
   if (/PerRtHz$/.test(name)) return { kind: 'si', unit: name.endsWith('APerRtHz') ? 'A/rtHz' : 'V/rtHz' };
-  if (/VPerS$/.test(name)) return { kind: 'plain', suffix: 'V/s' };
+  if (/VPerS$/.test(name)) return { kind: 'si', unit: 'V', suffix: '/s' };
   if (/Hz$/.test(name)) return { kind: 'si', unit: 'Hz' };
   if (/Ohm$/.test(name)) return { kind: 'si', unit: 'ohm' };
   if (/Db$/.test(name)) return { kind: 'si', unit: 'dB' };
@@ -44,6 +44,10 @@ export function unitForCheckUnit(unit: string): DisplayUnit {
     case 'dB':
     case 's':
       return { kind: 'si', unit };
+    case 'Ω':
+      return { kind: 'si', unit: 'ohm' };
+    case 'V/s':
+      return { kind: 'si', unit: 'V', suffix: '/s' };
     case 'fraction of range':
       return { kind: 'percent' };
     default:

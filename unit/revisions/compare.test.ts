@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { compareRevisions, diffChecks, diffPlanInputs, flattenLeaves } from '@/features/revisions/compare';
-import { formatValue, unitForFieldName } from '@/features/revisions/quantity-text';
+import { formatValue, unitForCheckUnit, unitForFieldName } from '@/features/revisions/quantity-text';
 import { revisionLabel } from '@/features/revisions/revision-label';
 import { canTransition } from '@/features/revisions/revision-states';
 import { evaluate } from '@/lib/engine/evaluate';
@@ -39,6 +39,18 @@ describe('revision state transitions', () => {
   });
 });
 
+describe('units of check values', () => {
+  it.each([
+    ['Ω', 36_840_000, '36.84 MΩ'],
+    ['V/s', 2.365e-5, '23.65 µV/s'],
+    ['Hz', 0.04494, '44.94 mHz'],
+    ['fraction of range', 0.1168, '11.68 %'],
+    ['V/V', 10, '10 V/V'],
+  ])('a check in %s of %s shows as %s', (unit, value, text) => {
+    expect(formatValue(value, unitForCheckUnit(unit))).toBe(text);
+  });
+});
+
 describe('units read from field names', () => {
   it.each([
     ['rgOhm', 19_900, '19.9 kΩ'],
@@ -54,6 +66,7 @@ describe('units read from field names', () => {
     ['temperatureK', 310, '310 K'],
     ['diffGain', 1, '1 V/V'],
     ['bits', 24, '24 bits'],
+    ['slopeVPerS', 2.365e-5, '23.65 µV/s'],
   ])('%s = %s shows as %s', (name, value, text) => {
     expect(formatValue(value, unitForFieldName(name))).toBe(text);
   });

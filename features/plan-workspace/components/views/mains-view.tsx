@@ -78,8 +78,8 @@ export function MainsView({ report, mainsHz }: { report: ChannelReport; mainsHz?
           title="Mains interference referred to input, by term"
           data={termsData}
           layout={{
-            yaxis: { title: { text: 'Term' }, automargin: true, autorange: 'reversed' },
-            xaxis: { title: { text: 'Interference RTI (V peak-to-peak)' }, type: useLog ? 'log' : 'linear', exponentformat: 'SI', gridcolor: '#e5e7eb' },
+            yaxis: { automargin: true, autorange: 'reversed' },
+            xaxis: { title: { text: 'RTI (V p-p)' }, type: useLog ? 'log' : 'linear', exponentformat: 'SI', gridcolor: '#e5e7eb' },
             showlegend: false,
             shapes: limit ? [{ type: 'line', yref: 'paper', y0: 0, y1: 1, x0: limit.limit, x1: limit.limit, line: { color: plotColors.fails, width: 2, dash: 'dash' } }] : [],
             annotations: limit

@@ -24,7 +24,7 @@ export default async function BenchPage({ params }: { params: Promise<{ programI
     <section aria-labelledby="bench-heading" className="space-y-6">
       <div>
         <PlanNav programId={plan.programId} planId={plan.id} programName={plan.programName} planName={plan.name} current="Bench records" showWorkspace={canReadWorkInProgress(member)} />
-        <h1 id="bench-heading" className="text-2xl font-semibold">Bench records</h1>
+        <h1 id="bench-heading" className="mt-4 text-2xl font-semibold">Bench records</h1>
         <p className="mt-1 text-ink-soft">Recordings from the prototype, attached to a revision, against what that revision predicted.</p>
       </div>
       {revisions.length === 0 ? (
