@@ -4,11 +4,14 @@
  * Nobody is signed in here; the one-time token is the authority, checked in the same transaction
  * that uses it.
  */
+import { headers } from 'next/headers';
 import { getServerEnv } from '@/db/env';
 import { acceptInvitation } from '@/db/queries/invitations';
 import { completePasswordReset, createPasswordResetToken } from '@/db/queries/password-resets';
+import { getSignInCounters, recordSignInFailure } from '@/db/queries/sign-in-counters';
 import { getUserByEmail } from '@/db/queries/users';
 import { linkMessages, passwordResetRequestedMessage } from '@/features/auth/account-messages';
+import { clientIpFromHeaders } from '@/features/auth/authorize';
 import { errorFormState } from '@/features/auth/errors';
 import { hashPassword } from '@/features/auth/password';
 import { sendMail } from '@/features/mail/send-mail';
@@ -19,6 +22,15 @@ import {
   resetPasswordInputSchema,
 } from '@/lib/auth/account-schemas';
 import { fieldErrorsFromIssues, type FormState } from '@/lib/auth/form-state';
+import {
+  failureWindowMs,
+  isRateLimited,
+  maxResetRequestsPerAccount,
+  maxResetRequestsPerIp,
+  resetAccountCounterKey,
+  resetIpCounterKey,
+  tooManyAttemptsMessage,
+} from '@/lib/auth/rate-limit';
 import { createOneTimeToken, hashToken, passwordResetLifetimeMs } from '@/lib/auth/tokens';
 
 export type AcceptInvitationField = 'name' | 'password' | 'confirmPassword' | 'token';
@@ -76,6 +88,20 @@ export async function requestPasswordResetAction(
     return { status: 'error', fieldErrors: fieldErrorsFromIssues<ForgotPasswordField>(parsed.error.issues), values: raw };
   }
   try {
+    // Reset e-mails are counted per address and per client in MariaDB (shared by every app
+    // instance); past the limit nothing is sent, whether or not the address has an account.
+    const ip = clientIpFromHeaders(Object.fromEntries((await headers()).entries()));
+    const keys = [resetAccountCounterKey(parsed.data.email), resetIpCounterKey(ip)];
+    const counters = await getSignInCounters({ keys });
+    const now = new Date();
+    const limits = [maxResetRequestsPerAccount, maxResetRequestsPerIp];
+    for (const [k, key] of keys.entries()) {
+      const decision = isRateLimited(counters.get(key) ?? null, limits[k], now, failureWindowMs);
+      if (decision.limited) {
+        return { status: 'error', message: `${tooManyAttemptsMessage(decision.retryAfterMinutes)}: no reset e-mail was sent.`, fieldErrors: {}, values: raw };
+      }
+    }
+    await recordSignInFailure({ keys, now, windowMs: failureWindowMs });
     const user = await getUserByEmail({ email: parsed.data.email });
     if (user) {
       const { token, tokenHash } = createOneTimeToken();

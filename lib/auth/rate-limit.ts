@@ -58,3 +58,20 @@ export function accountCounterKey(email: string): string {
 export function ipCounterKey(ip: string): string {
   return `ip:${ip}`;
 }
+
+/**
+ * Password-reset e-mails allowed per address and per client within the window: enough for a
+ * person who mistyped or lost a mail, too few to flood an inbox. Common practice, no source.
+ */
+export const maxResetRequestsPerAccount = 3;
+export const maxResetRequestsPerIp = 20;
+
+/** Counter key of reset requests for an address (known or not, so the limit reveals nothing). */
+export function resetAccountCounterKey(email: string): string {
+  return `reset:${email.trim().toLowerCase()}`;
+}
+
+/** Counter key of reset requests from a client address. */
+export function resetIpCounterKey(ip: string): string {
+  return `reset-ip:${ip}`;
+}

@@ -15,6 +15,8 @@ import { hashToken } from '@/lib/auth/tokens';
 const session = vi.hoisted(() => ({ current: null as null | { userId: number; workspaceId: number } }));
 vi.mock('@/features/auth/session-source', () => ({ getSessionIdentity: async () => session.current }));
 vi.mock('next/cache', () => ({ revalidatePath: () => undefined }));
+const client = vi.hoisted(() => ({ ip: '10.9.0.1' }));
+vi.mock('next/headers', () => ({ headers: async () => new Headers({ 'x-forwarded-for': client.ip }) }));
 
 const { inviteMemberAction } = await import('@/app/(app)/members/actions');
 const { acceptInvitationAction, requestPasswordResetAction, resetPasswordAction } = await import('@/app/(auth)/actions');
@@ -29,6 +31,7 @@ beforeEach(async () => {
   await clearInbox();
   await rawQuery('DELETE FROM sign_in_counters');
   session.current = { userId: seeded.userIds.admin, workspaceId: seeded.workspaceId };
+  client.ip = '10.9.0.1';
 });
 afterAll(closeDb);
 
@@ -220,5 +223,36 @@ describe('password reset', () => {
     await expect(authorizeCredentials({ email: eli.email, password: eli.password }, { ip: '10.8.0.2' })).resolves.toMatchObject({
       role: 'engineer',
     });
+  });
+
+  it('sends at most 3 reset e-mails per address in 15 minutes; the 4th is refused, sends and stores nothing', async () => {
+    const ada = demoAccounts[0];
+    for (let i = 0; i < 3; i++) {
+      client.ip = `10.9.1.${i + 1}`;
+      expect(await requestPasswordResetAction({ status: 'idle' }, form({ email: ada.email }))).toEqual({ status: 'success', message: passwordResetRequestedMessage });
+    }
+    await waitForMail(ada.email);
+    const before = await tableCounts();
+    const sent = (await listInbox()).length;
+    expect(before.resets).toBeGreaterThanOrEqual(3);
+    client.ip = '10.9.1.9';
+    const refused = await requestPasswordResetAction({ status: 'idle' }, form({ email: ` ${ada.email.toUpperCase()} ` }));
+    expect(refused).toEqual({ status: 'error', message: 'Too many attempts; try again in 15 minutes: no reset e-mail was sent.', fieldErrors: {}, values: { email: ` ${ada.email.toUpperCase()} ` } });
+    await new Promise((resolve) => setTimeout(resolve, 300));
+    expect((await listInbox()).length).toBe(sent);
+    expect(await tableCounts()).toEqual(before);
+    // Unknown addresses are counted the same way, so the refusal says nothing about who has an account.
+    for (let i = 0; i < 3; i++) await requestPasswordResetAction({ status: 'idle' }, form({ email: 'nobody@larkspur.example' }));
+    expect(await requestPasswordResetAction({ status: 'idle' }, form({ email: 'nobody@larkspur.example' }))).toMatchObject({ status: 'error', message: refused.status === 'error' ? refused.message : '' });
+  });
+
+  it('sends at most 20 reset e-mails from one client address in 15 minutes', async () => {
+    client.ip = '10.9.2.1';
+    for (let i = 0; i < 20; i++) {
+      expect(await requestPasswordResetAction({ status: 'idle' }, form({ email: `someone-${i}@larkspur.example` }))).toMatchObject({ status: 'success' });
+    }
+    expect(await requestPasswordResetAction({ status: 'idle' }, form({ email: 'someone-20@larkspur.example' }))).toMatchObject({ status: 'error', message: expect.stringMatching(/^Too many attempts; try again in 1[45] minutes/) });
+    client.ip = '10.9.2.2';
+    expect(await requestPasswordResetAction({ status: 'idle' }, form({ email: 'someone-20@larkspur.example' }))).toMatchObject({ status: 'success' });
   });
 });
