@@ -1,5 +1,5 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { fetchJson } from '@/features/parts/api/fetch-json';
+import { fetchJson } from '@/features/ui/fetch-json';
 import type { LibraryPartDto } from '@/features/parts/types';
 
 /** Query key root of every part-library read (mutations invalidate it). */

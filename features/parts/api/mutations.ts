@@ -1,5 +1,5 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { fetchJson } from '@/features/parts/api/fetch-json';
+import { fetchJson } from '@/features/ui/fetch-json';
 import { partsQueryKey } from '@/features/parts/api/get-library';
 import type { ImportPreviewDto, ImportResultDto, LibraryPartDto } from '@/features/parts/types';
 import type { PartKind } from '@/lib/parts/part-kinds';

@@ -5,7 +5,7 @@
  * and again by the server, whose message names the field.
  */
 import { useId, useState, type FormEvent } from 'react';
-import { ApiError } from '@/features/parts/api/fetch-json';
+import { ApiError } from '@/features/ui/fetch-json';
 import { useSavePart, type PartBody } from '@/features/parts/api/mutations';
 import { formatFieldValue, kindLabels, parameterSpecs, parseFieldText, specLabel, statusLabels } from '@/features/parts/part-display';
 import type { LibraryPartDto } from '@/features/parts/types';

@@ -5,7 +5,7 @@
  * bad row and cell is listed, nothing is written), then import — all of it or nothing.
  */
 import { useId, useState } from 'react';
-import { ApiError } from '@/features/parts/api/fetch-json';
+import { ApiError } from '@/features/ui/fetch-json';
 import { usePreviewImport, useRunImport } from '@/features/parts/api/mutations';
 import { kindLabels, specLabel } from '@/features/parts/part-display';
 import type { ImportPreviewDto } from '@/features/parts/types';

@@ -1,5 +1,5 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { fetchJson } from '@/features/plans/api/fetch-json';
+import { fetchJson } from '@/features/ui/fetch-json';
 import type { PlanSummaryDto } from '@/features/plans/types';
 
 /** Query key root of a program's plan lists (mutations invalidate it). */

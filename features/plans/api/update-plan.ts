@@ -1,5 +1,5 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { fetchJson } from '@/features/plans/api/fetch-json';
+import { fetchJson } from '@/features/ui/fetch-json';
 import { programPlansQueryKey } from '@/features/plans/api/get-plans';
 import type { UpdatePlanInput } from '@/features/plans/schemas';
 import type { PlanSummaryDto } from '@/features/plans/types';

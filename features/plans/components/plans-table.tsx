@@ -16,7 +16,7 @@ import {
   type SortingState,
 } from '@tanstack/react-table';
 import { useCreatePlan } from '@/features/plans/api/create-plan';
-import { ApiError } from '@/features/plans/api/fetch-json';
+import { ApiError } from '@/features/ui/fetch-json';
 import { useProgramPlans } from '@/features/plans/api/get-plans';
 import { useUpdatePlan } from '@/features/plans/api/update-plan';
 import { createPlanInputSchema } from '@/features/plans/schemas';

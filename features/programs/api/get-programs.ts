@@ -1,5 +1,5 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { fetchJson } from '@/features/programs/api/fetch-json';
+import { fetchJson } from '@/features/ui/fetch-json';
 import type { ProgramDto } from '@/features/programs/types';
 
 /** Query key root of every program read (mutations invalidate it). */

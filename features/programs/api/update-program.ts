@@ -1,5 +1,5 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { fetchJson } from '@/features/programs/api/fetch-json';
+import { fetchJson } from '@/features/ui/fetch-json';
 import { programsQueryKey } from '@/features/programs/api/get-programs';
 import type { UpdateProgramInput } from '@/features/programs/schemas';
 import type { ProgramDto } from '@/features/programs/types';

@@ -6,7 +6,7 @@
 import Link from 'next/link';
 import { useId, useState, type FormEvent } from 'react';
 import { useCreateProgram } from '@/features/programs/api/create-program';
-import { ApiError } from '@/features/programs/api/fetch-json';
+import { ApiError } from '@/features/ui/fetch-json';
 import { usePrograms } from '@/features/programs/api/get-programs';
 import { useUpdateProgram } from '@/features/programs/api/update-program';
 import { createProgramInputSchema, programNameSchema } from '@/features/programs/schemas';

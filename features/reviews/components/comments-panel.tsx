@@ -3,7 +3,7 @@
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
 import { anchorLabel, reviewStageIds, reviewStageLabels } from '@/features/reviews/anchors';
-import { sendJson } from '@/features/reviews/components/send-json';
+import { sendJson } from '@/features/ui/send-json';
 
 export interface CommentView {
   id: string;

@@ -2,7 +2,7 @@
 
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
-import { sendJson } from '@/features/reviews/components/send-json';
+import { sendJson } from '@/features/ui/send-json';
 
 export interface ReviewerOption {
   userId: string;

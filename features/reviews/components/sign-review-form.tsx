@@ -2,7 +2,7 @@
 
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
-import { sendJson } from '@/features/reviews/components/send-json';
+import { sendJson } from '@/features/ui/send-json';
 
 /**
  * A requested reviewer's decision, signed by re-entering the password. The content hash shown is

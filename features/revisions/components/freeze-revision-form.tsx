@@ -2,7 +2,7 @@
 
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
-import { sendJson } from '@/features/revisions/components/send-json';
+import { sendJson } from '@/features/ui/send-json';
 
 /** Freezes the stored plan as its next revision, with a change summary (engineers and admins). */
 export function FreezeRevisionForm({ planId, planVersion, nextLabel }: { planId: string; planVersion: number; nextLabel: string }) {

@@ -1,6 +1,7 @@
 /**
- * Browser-side calls to the part-library API. A refusal becomes an `ApiError` carrying the server's
- * message (which names the field and the reason) and, for imports, the preview listing every problem.
+ * Browser-side JSON calls to the app's route handlers (JSON or a FormData body). A refusal becomes an
+ * `ApiError` carrying the server's message (which names the field and the reason), its field errors and
+ * the whole body (an import preview lists every problem there).
  */
 export class ApiError extends Error {
   readonly status: number;
