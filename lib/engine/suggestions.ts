@@ -5,7 +5,8 @@
 import { lowPassMagnitudeSquared, LOW_PASS_MAX_ORDER } from './filters';
 import { pulseTest } from './impulse';
 import { interferenceReport } from './interference';
-import { gainResistorOhm, type Resolved } from './model';
+import { firstStageGain, gainResistorOhm, resolvePlan, type Resolved } from './model';
+import { noiseBudget } from './noise';
 import type { ChannelReport, Check, Suggestion } from './report';
 
 /** Rounds to three significant digits. */
@@ -139,12 +140,63 @@ export function buildSuggestions(r: Resolved, report: ChannelReport): Suggestion
     }
   }
 
+  const noise = byId.get('noise');
+  if (needsFix(noise)) out.push(...noiseSuggestions(r, report, noise));
+
   const res = byId.get('adc-resolution');
   if (needsFix(res)) {
     const g2 = sig3(maxSecondStageGain(r, r.g1));
     if (g2 > p.gainStage.gain && res.value * (p.gainStage.gain / g2) <= res.limit) {
       out.push({ id: 'gain-split-resolution', checkId: 'adc-resolution', title: `Raise the second-stage gain to ${g2}`, detail: 'Uses the converter range for the signal (10 % margin) so that one LSB referred to input meets the limit.', patch: { path: 'gainStage.gain', value: g2 } });
     }
+  }
+  return out;
+}
+
+/**
+ * For a failing noise check: noise made after the first stage (difference stage, gain stage,
+ * filter, converter) is divided by G1 when referred to input, so a larger G1 with G2 lowered to keep
+ * the total gain lowers the RTI noise (Friis's formula for cascaded stages, Friis 1944, in its
+ * voltage form). Searches the smallest G1, within 90 % of the offset-safe maximum, whose noise is at
+ * most 90 % of the limit; suggests it (as the plan states G1: target gain or Rg) and the G2 that
+ * keeps the total gain. None when even the largest safe G1 is not enough: the dominant contributor
+ * is then the electrodes or the input op-amp, which a gain change does not help.
+ */
+function noiseSuggestions(r: Resolved, report: ChannelReport, check: Check): Suggestion[] {
+  const p = r.plan;
+  const byRg = p.instrumentation.targetGain === undefined;
+  const gMax = 0.9 * report.maxFirstStageGain;
+  if (!(gMax > r.g1)) return [];
+  const totalGain = r.g1 * p.gainStage.gain;
+  /** The plan with the first stage at g1 (as the plan states it) and G2 keeping the total gain. */
+  const withFirstStageGain = (g1: number) => {
+    const plan = structuredClone(p);
+    if (byRg) plan.instrumentation.rgOhm = sig3(gainResistorOhm(r.rOhm, g1));
+    else plan.instrumentation.targetGain = g1;
+    const actualG1 = byRg ? firstStageGain(r.rOhm, plan.instrumentation.rgOhm!) : g1;
+    plan.gainStage.gain = Math.max(1, sig3(totalGain / actualG1));
+    return { plan, actualG1 };
+  };
+  const target = 0.9 * check.limit;
+  const noiseAt = (g1: number) => noiseBudget(resolvePlan(withFirstStageGain(g1).plan, r.profile)).rtiPpV;
+  const gTop = Math.floor(gMax);
+  if (gTop <= r.g1 || noiseAt(gTop) > target) return [];
+  let lo = r.g1;
+  let hi = gTop;
+  while (hi - lo > 1) {
+    const m = Math.floor((lo + hi) / 2);
+    if (noiseAt(m) <= target) hi = m;
+    else lo = m;
+  }
+  const { plan, actualG1 } = withFirstStageGain(hi);
+  const reached = noiseAt(hi);
+  const detail = `Noise made after the first stage is divided by G1 when referred to input: G1 ≈ ${sig3(actualG1)} with G2 = ${plan.gainStage.gain} (same total gain) gives ${sig3(reached * 1e6)} µV p-p against the ${sig3(check.limit * 1e6)} µV limit, within 90 % of the offset-safe maximum G1 = ${report.maxFirstStageGain.toFixed(2)}.`;
+  const first: Suggestion = byRg
+    ? { id: 'noise-first-stage-gain', checkId: 'noise', title: `Lower Rg to ${plan.instrumentation.rgOhm} Ω (G1 ≈ ${sig3(actualG1)}) for less noise`, detail, patch: { path: 'instrumentation.rgOhm', value: plan.instrumentation.rgOhm! } }
+    : { id: 'noise-first-stage-gain', checkId: 'noise', title: `Raise the first-stage gain to ${hi} for less noise`, detail, patch: { path: 'instrumentation.targetGain', value: hi } };
+  const out = [first];
+  if (plan.gainStage.gain !== p.gainStage.gain) {
+    out.push({ id: 'gain-split-after-noise', checkId: 'noise', title: `Keep the total gain: G2 = ${plan.gainStage.gain}`, detail: 'Lowers the second stage by as much as the first stage was raised, so levels after it and the resolution stay as they were.', patch: { path: 'gainStage.gain', value: plan.gainStage.gain } });
   }
   return out;
 }

@@ -94,6 +94,59 @@ describe('evaluate on the demo plans', () => {
     expect(after.checks.filter((c) => c.verdict === 'fails').map((c) => c.id)).toEqual([]);
   });
 
+  it.each(['targetGain', 'rgOhm'] as const)(
+    'a noise failure caused after the first stage gets a larger G1 (stated as %s) with the same total gain, which fixes it',
+    (stated) => {
+      // The cart with its gain moved to the second stage (G1 = 2, G2 = 100) and a noisy gain-stage
+      // op-amp (800 nV/√Hz): referred to input that noise is divided by G1·Gd, so it dominates
+      // (the cascade principle of Friis, Proc. IRE 1944, in its voltage form).
+      const noisy = clone(cart) as Record<string, any>;
+      noisy.gainStage.opAmp.enVPerRtHz = 800e-9;
+      noisy.gainStage.gain = 100;
+      if (stated === 'targetGain') noisy.instrumentation.targetGain = 2;
+      else {
+        delete noisy.instrumentation.targetGain;
+        noisy.instrumentation.rgOhm = 2 * noisy.instrumentation.rOhm; // G1 = 1 + 2R/Rg = 2
+      }
+      const r = evaluate(noisy);
+      expect(r.gains.g1).toBeCloseTo(2, 12);
+      const noiseCheck = r.checks.find((c) => c.id === 'noise')!;
+      expect(noiseCheck.verdict).toBe('fails');
+      const top = [...r.noise.contributions].sort((x, y) => y.rmsV - x.rmsV)[0];
+      expect(top.name).toBe('gain-stage op-amp');
+      const suggested = r.suggestions.filter((x) => x.checkId === 'noise');
+      expect(suggested.map((x) => x.id)).toEqual(['noise-first-stage-gain', 'gain-split-after-noise']);
+      expect(suggested[0].patch.path).toBe(`instrumentation.${stated}`); // as the plan states G1
+      const fixed = clone(noisy);
+      for (const sug of suggested) setPath(fixed, sug.patch.path, sug.patch.value);
+      const after = evaluate(fixed);
+      expect(after.gains.g1).toBeGreaterThan(2);
+      expect(after.gains.g1).toBeLessThanOrEqual(0.9 * r.maxFirstStageGain);
+      expect(after.checks.find((c) => c.id === 'noise')!.value).toBeLessThanOrEqual(0.9 * noiseCheck.limit);
+      // The same total gain, within the 3-significant-digit rounding of Rg and G2.
+      expect(Math.abs(after.gains.totalGain / r.gains.totalGain - 1)).toBeLessThan(0.01);
+      expect(after.checks.filter((c) => c.verdict !== 'meets').map((c) => c.id)).toEqual([]);
+      // The smallest such G1: one step lower (target gain) does not reach 90 % of the limit.
+      if (stated === 'targetGain') {
+        const lower = clone(fixed);
+        lower.instrumentation.targetGain -= 1;
+        lower.gainStage.gain = Math.round((r.gains.totalGain / lower.instrumentation.targetGain) * 1000) / 1000;
+        expect(evaluate(lower).checks.find((c) => c.id === 'noise')!.value).toBeGreaterThan(0.9 * noiseCheck.limit);
+      }
+    },
+  );
+
+  it('a noise failure made at the input (2 MΩ electrodes) gets no gain suggestion', () => {
+    // Electrode thermal noise and the input current noise through the electrodes are at the input:
+    // no gain change helps, so nothing is offered (the check still links to its stage).
+    const dry = clone(cart) as Record<string, any>;
+    dry.electrodes.rsOhm = 2e6;
+    const r = evaluate(dry);
+    expect(r.checks.find((c) => c.id === 'noise')!.verdict).toBe('fails');
+    expect(r.maxFirstStageGain * 0.9).toBeGreaterThan(r.gains.g1 + 1); // G1 could rise, but it would not help
+    expect(r.suggestions.filter((x) => x.checkId === 'noise')).toEqual([]);
+  });
+
   it('the closed-form largest gain puts the worst node exactly on its limit', () => {
     const r = evaluate(cart);
     const p = clone(cart) as Record<string, any>;
