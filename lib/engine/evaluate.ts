@@ -37,6 +37,7 @@ const COMMON_ASSUMPTIONS = [
   'Op-amps are modelled with a single pole: closed-loop bandwidth = GBW / noise gain.',
   'Peak-to-peak noise = 6.6 × rms (common practice for Gaussian noise, no source).',
   'The low-frequency impulse test uses the high-pass alone (the other stages are flat there).',
+  "The conversion of common-mode to differential voltage by electrode imbalance leaves out the protection filter's differential capacitor, which only lowers it (conservative).",
   'In the profile CMR test the right-leg drive is credited through the test source impedance (300 pF assumed); without a drive no reduction is credited.',
   'A planning aid, not a certification: verify by test to IEC 60601-1 and the applicable particular standards.',
 ];
