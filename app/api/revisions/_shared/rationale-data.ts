@@ -44,7 +44,7 @@ export function rationaleDataFor(
         contentHash: s.contentHash,
       })),
     },
-    ...(bench ? { bench: { recordName: `${bench.record.fileName} (channel ${bench.record.channel}, uploaded ${bench.record.uploadedAt.replace("T", " ").slice(0, 16)} UTC)`, rows: bench.rows } } : {}),
+    ...(bench ? { bench: { recordName: `${bench.record.fileName} (channel ${bench.record.channel}, uploaded ${bench.record.uploadedAt.replace('T', ' ').slice(0, 16)} UTC)`, rows: bench.rows } } : {}),
     generatedAt,
     generatedByName: generatedBy.name,
   };
