@@ -43,9 +43,13 @@ export function reciprocal(a: Complex): Complex {
   return { re: a.re / d, im: -a.im / d };
 }
 
-/** Magnitude |a|. @example magnitude({re:3,im:4}) → 5 */
+/**
+ * Magnitude |a|. @example magnitude({re:3,im:4}) → 5
+ * √(re² + im²) rather than Math.hypot, which guards against overflow the responses here never
+ * reach (|re|, |im| far inside 1e±150) and is several times slower in the engines we run on.
+ */
 export function magnitude(a: Complex): number {
-  return Math.hypot(a.re, a.im);
+  return Math.sqrt(a.re * a.re + a.im * a.im);
 }
 
 /** Squared magnitude |a|². */

@@ -50,7 +50,23 @@ export function integrateRmsV(densitySq: (fHz: number) => number, fLowHz: number
   return Math.sqrt(sum);
 }
 
-type Source = { name: string; stageId: StageId; /** RTI power density at f, V²/Hz */ at: (i: number) => number };
+/** The contributors, in the order the report lists them, with the stage each belongs to. */
+const CONTRIBUTORS: readonly { name: string; stageId: StageId }[] = [
+  { name: 'electrode thermal noise', stageId: 'electrodes' },
+  { name: 'imbalance network thermal noise', stageId: 'electrodes' },
+  { name: 'protection resistors thermal noise', stageId: 'protection' },
+  { name: 'input op-amp voltage noise', stageId: 'instrumentation' },
+  { name: 'input op-amp current noise × source impedance', stageId: 'instrumentation' },
+  { name: 'gain-setting resistors R, Rg', stageId: 'instrumentation' },
+  { name: 'difference stage', stageId: 'instrumentation' },
+  { name: 'gain-stage op-amp', stageId: 'gain-stage' },
+  { name: 'filter network', stageId: 'gain-stage' },
+  { name: 'ADC input noise', stageId: 'adc' },
+  { name: 'ADC quantization', stageId: 'adc' },
+];
+
+/** e²(f) = e_n²·(1 + f_c/f): white density with a 1/f region below the corner (Kester, ADI MT-048). */
+const en2 = (en: number, fc: number, f: number) => en * en * (1 + fc / f);
 
 /**
  * The full noise budget referred to input.
@@ -68,93 +84,74 @@ export function noiseBudget(r: Resolved, pointCount = 240): NoiseReport {
   const n = grid.length;
   const midMag = totalMagnitudeAt(r, midbandFrequencyHz(r));
   const mid2 = midMag * midMag;
-  // Shapes (|transfer to output|² / |H_mid|²) per grid point.
-  const full = new Float64Array(n);
-  const afterInput = new Float64Array(n);
-  const afterDiff = new Float64Array(n);
-  const gainStageOnly = new Float64Array(n);
-  const lpOnly = new Float64Array(n);
-  const electrodeRe = new Float64Array(n);
-  const imbalanceRe = new Float64Array(n);
-  const sourceZ2 = new Float64Array(n);
   const op1 = p.instrumentation.opAmp;
   const op2 = p.gainStage.opAmp;
   const lp = p.gainStage.lowPass;
   const e = p.electrodes;
+  const r34 = (r.r3Ohm * r.r4Ohm) / (r.r3Ohm + r.r4Ohm);
+  const rgTerm = Number.isFinite(r.rgOhm) ? kT4 * r.rgOhm * ((r.g1 - 1) / r.g1) ** 2 : 0;
+  const gainResistors = (kT4 * 2 * r.rOhm) / (r.g1 * r.g1) + rgTerm;
+  const protection = kT4 * 2 * p.protection.seriesROhm;
+  const filterNoise2 = p.gainStage.filterNoiseVPerRtHz ** 2;
+  const lsbV = p.adc.fullScaleV / 2 ** p.adc.bits;
+  const adcDensity2 = (p.adc.inputNoiseVrms * p.adc.inputNoiseVrms) / (fs / 2);
+  const quantDensity2 = (lsbV * lsbV) / 12 / (fs / 2);
+
+  // RTI power density of every contributor at every grid point, V²/Hz: the source's density at its
+  // place times its transfer to the output (|H|²), divided by the mid-band |H|².
+  const density = CONTRIBUTORS.map(() => new Float64Array(n));
+  const [dElectrode, dImbalance, dProtection, dInputEn, dInputIn, dGainR, dDiff, dGainStage, dFilter, dAdc, dQuant] = density;
   for (let i = 0; i < n; i++) {
     const f = grid[i];
     const s = stageResponsesAt(r, f);
     const hpGs = magnitudeSquared(s.highPass) * magnitudeSquared(s.gainStage);
-    full[i] = magnitudeSquared(s.total) / mid2;
-    afterInput[i] = (magnitudeSquared(s.instrumentation) * hpGs) / mid2;
-    afterDiff[i] = (magnitudeSquared(closedLoopStageAt(1, 1 + r.gd, op1.gbwHz, f)) * hpGs) / mid2;
+    const full = magnitudeSquared(s.total) / mid2;
+    const afterInput = (magnitudeSquared(s.instrumentation) * hpGs) / mid2;
+    const afterDiff = (magnitudeSquared(closedLoopStageAt(1, 1 + r.gd, op1.gbwHz, f)) * hpGs) / mid2;
     const lp2 = lowPassMagnitudeSquared(lp.kind, lp.order, lp.fcHz, f);
-    gainStageOnly[i] = (magnitudeSquared(closedLoopStageAt(r.g2, r.g2, op2.gbwHz, f)) * lp2) / mid2;
-    lpOnly[i] = lp2 / mid2;
+    const gainStageOnly = (magnitudeSquared(closedLoopStageAt(r.g2, r.g2, op2.gbwHz, f)) * lp2) / mid2;
     const ze = electrodeImpedanceOhm(e.rsOhm, e.rpOhm, e.cpF, f);
-    electrodeRe[i] = ze.re * (2 + r.electrodeMismatch);
-    imbalanceRe[i] = parallelRcOhm(e.imbalanceROhm, e.imbalanceCF, f).re;
     const z1 = leadImpedanceOhm(r, f, { mismatch: r.electrodeMismatch, withImbalance: true });
     const z2 = leadImpedanceOhm(r, f);
-    sourceZ2[i] = magnitudeSquared(z1) + magnitudeSquared(z2);
+    const en1 = en2(op1.enVPerRtHz, op1.enCornerHz, f);
+    const in1 = en2(op1.inAPerRtHz, op1.inCornerHz, f);
+    dElectrode[i] = kT4 * (ze.re * (2 + r.electrodeMismatch)) * full;
+    dImbalance[i] = kT4 * parallelRcOhm(e.imbalanceROhm, e.imbalanceCF, f).re * full;
+    dProtection[i] = protection * full;
+    dInputEn[i] = 2 * en1 * afterInput;
+    dInputIn[i] = in1 * (magnitudeSquared(z1) + magnitudeSquared(z2)) * full;
+    dGainR[i] = gainResistors * afterInput;
+    dDiff[i] = (1 + r.gd) ** 2 * (en1 + 2 * kT4 * r34 + 2 * in1 * r34 * r34) * afterDiff;
+    dGainStage[i] = en2(op2.enVPerRtHz, op2.enCornerHz, f) * gainStageOnly;
+    dFilter[i] = filterNoise2 * (lp2 / mid2);
+    dAdc[i] = adcDensity2 / mid2;
+    dQuant[i] = quantDensity2 / mid2;
   }
-  const en2 = (en: number, fc: number, f: number) => en * en * (1 + fc / f);
-  const r34 = (r.r3Ohm * r.r4Ohm) / (r.r3Ohm + r.r4Ohm);
-  const g1gd = r.g1 * r.gd;
-  const rgTerm = Number.isFinite(r.rgOhm) ? kT4 * r.rgOhm * ((r.g1 - 1) / r.g1) ** 2 : 0;
-  const lsbV = p.adc.fullScaleV / 2 ** p.adc.bits;
-  const adcDensity2 = (p.adc.inputNoiseVrms * p.adc.inputNoiseVrms) / (fs / 2);
-  const quantDensity2 = (lsbV * lsbV) / 12 / (fs / 2);
-  const sources: Source[] = [
-    { name: 'electrode thermal noise', stageId: 'electrodes', at: (i) => kT4 * electrodeRe[i] * full[i] },
-    { name: 'imbalance network thermal noise', stageId: 'electrodes', at: (i) => kT4 * imbalanceRe[i] * full[i] },
-    { name: 'protection resistors thermal noise', stageId: 'protection', at: (i) => kT4 * 2 * p.protection.seriesROhm * full[i] },
-    { name: 'input op-amp voltage noise', stageId: 'instrumentation', at: (i) => 2 * en2(op1.enVPerRtHz, op1.enCornerHz, grid[i]) * afterInput[i] },
-    { name: 'input op-amp current noise × source impedance', stageId: 'instrumentation', at: (i) => en2(op1.inAPerRtHz, op1.inCornerHz, grid[i]) * sourceZ2[i] * full[i] },
-    { name: 'gain-setting resistors R, Rg', stageId: 'instrumentation', at: (i) => ((kT4 * 2 * r.rOhm) / (r.g1 * r.g1) + rgTerm) * afterInput[i] },
-    {
-      name: 'difference stage',
-      stageId: 'instrumentation',
-      at: (i) => {
-        const f = grid[i];
-        const out2 = (1 + r.gd) ** 2 * (en2(op1.enVPerRtHz, op1.enCornerHz, f) + 2 * kT4 * r34 + 2 * en2(op1.inAPerRtHz, op1.inCornerHz, f) * r34 * r34);
-        return out2 * afterDiff[i];
-      },
-    },
-    { name: 'gain-stage op-amp', stageId: 'gain-stage', at: (i) => en2(op2.enVPerRtHz, op2.enCornerHz, grid[i]) * gainStageOnly[i] },
-    { name: 'filter network', stageId: 'gain-stage', at: (i) => p.gainStage.filterNoiseVPerRtHz ** 2 * lpOnly[i] },
-    { name: 'ADC input noise', stageId: 'adc', at: () => adcDensity2 / mid2 },
-    { name: 'ADC quantization', stageId: 'adc', at: () => quantDensity2 / mid2 },
-  ];
+  // Trapezoid rule in ln f: ∫S df = ∫S·f d ln f.
   const dl = Math.log(grid[1] / grid[0]);
-  const power = new Float64Array(sources.length);
-  const density = sources.map(() => new Float64Array(n));
-  for (let k = 0; k < sources.length; k++) {
-    const src = sources[k];
+  const power = density.map((d) => {
     let sum = 0;
-    let prev = 0;
-    for (let i = 0; i < n; i++) {
-      const d = src.at(i);
-      density[k][i] = d;
-      const cur = d * grid[i];
-      if (i > 0) sum += ((prev + cur) / 2) * dl;
+    let prev = d[0] * grid[0];
+    for (let i = 1; i < n; i++) {
+      const cur = d[i] * grid[i];
+      sum += ((prev + cur) / 2) * dl;
       prev = cur;
     }
-    power[k] = sum;
-  }
+    return sum;
+  });
   const totalPower = power.reduce((a, b) => a + b, 0);
-  const contributions: NoiseContribution[] = sources.map((s, k) => ({
-    name: s.name,
+  const contributions: NoiseContribution[] = CONTRIBUTORS.map((c, k) => ({
+    name: c.name,
     rmsV: Math.sqrt(power[k]),
     share: totalPower > 0 ? power[k] / totalPower : 0,
-    stageId: s.stageId,
+    stageId: c.stageId,
   }));
   const densityPoints: NoiseReport['densityPoints'] = [];
   for (let i = 0; i < n; i += 2) {
     const byContributor: Record<string, number> = {};
     let tot = 0;
-    for (let k = 0; k < sources.length; k++) {
-      byContributor[sources[k].name] = Math.sqrt(density[k][i]);
+    for (let k = 0; k < CONTRIBUTORS.length; k++) {
+      byContributor[CONTRIBUTORS[k].name] = Math.sqrt(density[k][i]);
       tot += density[k][i];
     }
     densityPoints.push({ fHz: grid[i], totalVPerRtHz: Math.sqrt(tot), byContributor });

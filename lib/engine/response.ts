@@ -99,8 +99,9 @@ function unwrap(points: ResponsePoint[]): void {
   }
 }
 
+/** A response point; |H| in dB as 10·log10(|H|²), the same value as 20·log10|H| without the root. */
 function point(fHz: number, h: Complex): ResponsePoint {
-  return { fHz, magDb: ratioToDb(magnitude(h)), phaseDeg: phaseDeg(h) };
+  return { fHz, magDb: 10 * Math.log10(h.re * h.re + h.im * h.im), phaseDeg: phaseDeg(h) };
 }
 
 /**
