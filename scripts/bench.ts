@@ -112,7 +112,7 @@ const evalMedian = median(rows.filter((r) => r.what.startsWith('evaluate ') && r
 process.stdout.write('\nmedian wall time (ms)\n');
 for (const r of rows) {
   const target = r.targetMs === undefined ? '' : `  target ≤ ${r.targetMs} ms: ${r.medianMs <= r.targetMs ? 'met' : 'NOT met'} (${(r.medianMs / r.targetMs).toFixed(2)} × target)`;
-  process.stdout.write(`  ${r.what.padEnd(66)} ${r.medianMs.toFixed(3).padStart(10)}${target}\n`);
+  process.stdout.write(`  ${r.what.padEnd(74)} ${r.medianMs.toFixed(3).padStart(10)}${target}\n`);
 }
 if (spiceMs !== null) {
   process.stdout.write(`\nngspice run ÷ the whole evaluate() (every analysis and check): ${(spiceMs / evalMedian).toFixed(0)} ×\n`);
