@@ -69,7 +69,7 @@ function besselDelayDenominator(order: number): Denominator {
 }
 
 /** |1/D(jΩ)|² for a denominator with real ascending coefficients. */
-function magnitudeSquaredAt(d: Denominator, omega: number): number {
+function magnitudeSquaredAt(d: ArrayLike<number>, omega: number): number {
   // D(jΩ): even powers give the real part with sign (−1)^(k/2), odd powers the imaginary part.
   let re = 0;
   let im = 0;
@@ -178,6 +178,86 @@ export function lowPassMagnitudeSquared(kind: LowPassKind, order: number, fcHz: 
   checkOrder(order, LOW_PASS_MAX_ORDER, 'low-pass');
   checkFrequencies(fcHz, fHz);
   return magnitudeSquaredAt(denominators[kind][order], fHz / fcHz);
+}
+
+/**
+ * A validated filter ready to be evaluated at many frequencies: its normalised denominator D and
+ * corner, with the order and corner checked once instead of at every frequency. Evaluate with
+ * `filterResponseInto` and `filterMagnitudeSquaredAt`.
+ */
+export type FilterSweep = {
+  /** true: high-pass, evaluated at Ω = −fc/f (s → ωc/s); false: low-pass, at Ω = f/fc. */
+  readonly highPass: boolean;
+  /** −3 dB corner, Hz. */
+  readonly fcHz: number;
+  /** Ascending coefficients d_0 … d_n of D(s), D(0) = 1 (shared, never written). */
+  readonly denominator: ArrayLike<number>;
+};
+
+/**
+ * The low-pass of `lowPassAt` prepared for a sweep.
+ * @param kind filter family
+ * @param order 1–8
+ * @param fcHz −3 dB corner, Hz
+ * @throws RangeError for an order or corner `lowPassAt` would reject
+ */
+export function lowPassSweep(kind: LowPassKind, order: number, fcHz: number): FilterSweep {
+  checkOrder(order, LOW_PASS_MAX_ORDER, 'low-pass');
+  checkFrequencies(fcHz, 0);
+  return { highPass: false, fcHz, denominator: denominators[kind][order] };
+}
+
+/**
+ * The Butterworth high-pass of `highPassAt` prepared for a sweep.
+ * @param order 1–4
+ * @param fcHz −3 dB corner, Hz
+ * @throws RangeError for an order or corner `highPassAt` would reject
+ */
+export function highPassSweep(order: number, fcHz: number): FilterSweep {
+  checkOrder(order, HIGH_PASS_MAX_ORDER, 'high-pass');
+  checkFrequencies(fcHz, 0);
+  return { highPass: true, fcHz, denominator: denominators.butterworth[order] };
+}
+
+/**
+ * H(j2πf) of a prepared filter, written to out[at] (real part) and out[at + 1] (imaginary part):
+ * the value `lowPassAt` / `highPassAt` return, without allocating. 1/D(jΩ) by Horner's rule with
+ * the real part of s = jΩ left out (the same operations as `inverseDenominatorAt` with sRe = 0).
+ * @param filter from `lowPassSweep` or `highPassSweep`
+ * @param fHz frequency, Hz (finite, ≥ 0; not checked here); a high-pass gives 0 at 0 Hz
+ * @param out receives the result
+ * @param at index of the real part in `out`
+ */
+export function filterResponseInto(filter: FilterSweep, fHz: number, out: Float64Array, at: number): void {
+  if (filter.highPass && fHz === 0) {
+    out[at] = 0;
+    out[at + 1] = 0;
+    return;
+  }
+  const omega = filter.highPass ? -filter.fcHz / fHz : fHz / filter.fcHz;
+  const d = filter.denominator;
+  let re = d[d.length - 1];
+  let im = 0;
+  for (let k = d.length - 2; k >= 0; k--) {
+    const nextRe = d[k] - im * omega;
+    im = re * omega;
+    re = nextRe;
+  }
+  const m = re * re + im * im;
+  out[at] = re / m;
+  out[at + 1] = -im / m;
+}
+
+/**
+ * |H(j2πf)|² of a prepared filter, summed from the powers of Ω (cheaper than the complex value):
+ * for a low-pass the value `lowPassMagnitudeSquared` returns.
+ * @param filter from `lowPassSweep` or `highPassSweep`
+ * @param fHz frequency, Hz (finite, ≥ 0; not checked here); a high-pass gives 0 at 0 Hz
+ * @returns |H|², dimensionless
+ */
+export function filterMagnitudeSquaredAt(filter: FilterSweep, fHz: number): number {
+  if (filter.highPass && fHz === 0) return 0;
+  return magnitudeSquaredAt(filter.denominator, filter.highPass ? -filter.fcHz / fHz : fHz / filter.fcHz);
 }
 
 /**

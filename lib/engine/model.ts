@@ -39,6 +39,23 @@ export function parallelRcOhm(rOhm: number, cF: number, fHz: number): Complex {
 }
 
 /**
+ * Real part of R ∥ C at fHz, R/(1 + x²) with x = 2πf·RC, Ω: `parallelRcOhm(…).re` computed the
+ * same way, without the object (for sweeps).
+ */
+export function parallelRcReOhm(rOhm: number, cF: number, fHz: number): number {
+  if (rOhm === 0) return 0;
+  const x = 2 * Math.PI * fHz * rOhm * cF;
+  return rOhm / (1 + x * x);
+}
+
+/** Imaginary part of R ∥ C at fHz, −R·x/(1 + x²), Ω: `parallelRcOhm(…).im` computed the same way, without the object. */
+export function parallelRcImOhm(rOhm: number, cF: number, fHz: number): number {
+  if (rOhm === 0) return 0;
+  const x = 2 * Math.PI * fHz * rOhm * cF;
+  return (-rOhm * x) / (1 + x * x);
+}
+
+/**
  * Electrode impedance Ze = Rs + Rp ∥ Cp (the usual electrode–skin model, e.g. Webster,
  * Medical Instrumentation: Application and Design, ch. 5).
  * @returns Ze at fHz, Ω
