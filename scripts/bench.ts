@@ -3,7 +3,8 @@
  *   node --import tsx scripts/bench.ts
  * evaluate() per demo plan (target ≤ 1 ms median), the 2,000-point response sweep,
  * Monte Carlo of 10,000 trials (target ≤ 0.5 s), the live-edit step the plan workspace runs on each
- * keystroke (validate + evaluate, target ≤ 16 ms), the waveform and ngspice hooks, and, when a
+ * keystroke (validate + evaluate, target ≤ 16 ms), the waveform and ngspice hooks (the engine's AC +
+ * noise analysis at ngspice's point count: target ≤ 0.25 ms, ≥ 100 × faster than ngspice), and, when a
  * production build exists, the first-load JavaScript of the workspace page from the build's own
  * bundle statistics.
  */
@@ -89,6 +90,8 @@ try {
   // The engine's own AC + noise analysis (frequency response with its corners, integrated RTI
   // noise by contributor): on the grids the report uses, and on ngspice's grid (decades × points
   // per decade) for an equal point count. Warmed up longer: each run is well under a millisecond.
+  // The ≥ 100 × target compares the same analysis, so it is judged at the equal point count; the
+  // 0.25 ms target on that row keeps it met with margin against ngspice's ~30 ms here.
   const sweep = defaultSweep(plan);
   const points = Math.round(Math.log10(sweep.stopHz / sweep.startHz) * sweep.pointsPerDecade) + 1;
   const resolved = resolvePlan(plan, profileFor(plan.profileId, plan.customProfile));
@@ -101,7 +104,7 @@ try {
     frequencyResponse(resolved, points);
     noiseBudget(resolved, points);
   }, 200, 200);
-  rows.push({ what: `engine AC + noise on ngspice's grid (${points} points each)`, medianMs: equalGridMs });
+  rows.push({ what: `engine AC + noise on ngspice's grid (${points} points each)`, medianMs: equalGridMs, targetMs: 0.25 });
   spiceMs = time(() => runNgspiceAcNoise(plan), 5, 1);
   rows.push({ what: `ngspice .ac + .noise of the same chain, ${points} points (process)`, medianMs: spiceMs });
 } catch (e) {
@@ -117,9 +120,9 @@ for (const r of rows) {
 if (spiceMs !== null) {
   process.stdout.write(`\nngspice run ÷ the whole evaluate() (every analysis and check): ${(spiceMs / evalMedian).toFixed(0)} ×\n`);
   if (sameAnalysisMs !== null && equalGridMs !== null) {
-    const ratio = spiceMs / sameAnalysisMs;
-    process.stdout.write(`ngspice run ÷ the engine's AC + noise analysis as the report uses it: ${ratio.toFixed(0)} ×  target ≥ 100 ×: ${ratio >= 100 ? 'met' : 'NOT met'}\n`);
-    process.stdout.write(`ngspice run ÷ the engine's AC + noise on ngspice's grid (equal point count): ${(spiceMs / equalGridMs).toFixed(0)} ×\n`);
+    const ratio = spiceMs / equalGridMs;
+    process.stdout.write(`ngspice run ÷ the engine's AC + noise analysis as the report uses it: ${(spiceMs / sameAnalysisMs).toFixed(0)} ×\n`);
+    process.stdout.write(`ngspice run ÷ the engine's same AC + noise analysis on ngspice's grid (equal point count): ${ratio.toFixed(0)} ×  target ≥ 100 ×: ${ratio >= 100 ? 'met' : 'NOT met'}\n`);
   }
 }
 
